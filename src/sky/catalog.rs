@@ -1,0 +1,1 @@
+//! Star catalog files: decoding (being built).
