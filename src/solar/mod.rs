@@ -6,9 +6,13 @@
 //! routine that a user date reaches returns `SolarError` instead of panicking.
 
 pub mod ephemeris;
+pub mod apparent;
 pub mod geometry;
+pub mod physical;
+pub mod state;
 
 pub use ephemeris::{Ephemeris, EphemerisError, OutOfCoverage, Series, AU_KM};
+pub use state::{body_state_from, BodyState};
 
 use serde::{Deserialize, Serialize};
 use std::fmt;
