@@ -250,11 +250,22 @@ fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_li
     let s0 = stars[start].pos();
     let mut star_of = vec![Some(start as u32)];
     let mut pos = vec![s0];
+    // Cheap cuts first (declination band, then one dot product against the
+    // enclosing cone), the exact corridor test last.
+    let mid = offset_by(s0, pa_rad(s0, target), d / 2.0);
+    let cone = (d / 2.0 + w).min(core::f64::consts::PI);
+    let (mid_v, cos_cone) = (unit(mid), libm::cos(cone));
     for (i, s) in stars.iter().enumerate() {
         if i == start || !((s.vmag as f64) <= star_limit) || !s.ra_rad.is_finite() || !s.dec_rad.is_finite() {
             continue;
         }
+        if (s.dec_rad - mid.dec_rad).abs() > cone {
+            continue;
+        }
         let p = s.pos();
+        if unit(p).dot(mid_v) < cos_cone {
+            continue;
+        }
         if sep_rad(p, s0) + sep_rad(p, target) <= d + 2.0 * w {
             star_of.push(Some(i as u32));
             pos.push(p);
