@@ -174,3 +174,17 @@ proptest! {
         }
     }
 }
+
+#[test]
+fn named_stars_appear_in_the_steps() {
+    let f = finder();
+    let stars = vec![
+        HopStar { ra_rad: 0.0, dec_rad: 0.0, vmag: 1.0, id: 10 },
+        HopStar { ra_rad: 0.0, dec_rad: 2.0f64.to_radians(), vmag: 3.0, id: 11 },
+    ];
+    let name = |id: u32| if id == 11 { Some("Middle".to_string()) } else { None };
+    let r = plan_route_named(&stars, 0, "Start", eq(0.0, 4.0), "T", &f, 9.0, UpReference::North, &HopRules::default(), &name).unwrap();
+    assert_eq!(r.points[1].label, "Middle");
+    assert!(r.steps[0].lands_on.starts_with("Middle, the brightest star around (mag 3.0)"), "{}", r.steps[0].lands_on);
+    assert!(r.steps[1].sentence.starts_with("Step 2: from Middle, move "), "{}", r.steps[1].sentence);
+}

@@ -202,6 +202,7 @@ fn key(v: DVec3, cell: f64) -> (i32, i32, i32) {
 /// Plan a star-hop route from `stars[start]` to the target through stars of
 /// `stars` (any superset of the region, e.g. a cone from `route_region`).
 /// `finder_limit_mag` comes from `Finder::limiting_mag`.
+#[allow(clippy::too_many_arguments)]
 pub fn plan_route(
     stars: &[HopStar],
     start: usize,
@@ -212,6 +213,24 @@ pub fn plan_route(
     finder_limit_mag: f64,
     up: UpReference,
     rules: &HopRules,
+) -> Result<Route, FindError> {
+    plan_route_named(stars, start, start_label, target, target_label, finder, finder_limit_mag, up, rules, &|_| None)
+}
+
+/// As `plan_route`, with `name_of` giving a star's proper name (by its `id`)
+/// for the step words and labels ("to Muphrid (mag 2.7)").
+#[allow(clippy::too_many_arguments)]
+pub fn plan_route_named(
+    stars: &[HopStar],
+    start: usize,
+    start_label: &str,
+    target: Equatorial,
+    target_label: &str,
+    finder: &Finder,
+    finder_limit_mag: f64,
+    up: UpReference,
+    rules: &HopRules,
+    name_of: &dyn Fn(u32) -> Option<String>,
 ) -> Result<Route, FindError> {
     if start >= stars.len() {
         return Err(FindError::BadIndex { field: "starting star", index: start, len: stars.len() });
@@ -232,7 +251,7 @@ pub fn plan_route(
     for w in corridor_widths(d, hop) {
         match search(stars, start, target, hop, star_limit, d, w) {
             Ok((nodes, path)) => {
-                return Ok(describe(stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up));
+                return Ok(describe(stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
             }
             Err(e) => last_err = Some(e),
         }
@@ -415,7 +434,7 @@ fn landing_words(stars: &[HopStar], nodes: &Nodes, grid: &Grid, vs: &[DVec3], no
 }
 
 #[allow(clippy::too_many_arguments)]
-fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, target_label: &str, finder: &Finder, hop: f64, star_limit: f64, up: UpReference) -> Route {
+fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, target_label: &str, finder: &Finder, hop: f64, star_limit: f64, up: UpReference, name_of: &dyn Fn(u32) -> Option<String>) -> Route {
     let vs: Vec<DVec3> = nodes.pos.iter().map(|p| unit(*p)).collect();
     let grid = Grid::new(&vs, 2.0 * libm::sin(hop / 2.0) * 1.000001);
     let last = path.len() - 1;
@@ -428,7 +447,7 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         } else if k == last {
             target_label.to_string()
         } else {
-            format!("{}", k)
+            star.and_then(|s| name_of(s.id)).unwrap_or_else(|| format!("{}", k))
         };
         points.push(RoutePoint { pos: nodes.pos[n], vmag: star.map(|s| s.vmag), star_id: star.map(|s| s.id), label });
     }
@@ -448,9 +467,20 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         let lands_on = if k + 1 == last {
             format!("{target_label}, which should now sit in the main telescope's field")
         } else {
-            landing_words(stars, nodes, &grid, &vs, path[k + 1] as usize, hop)
+            let w = landing_words(stars, nodes, &grid, &vs, path[k + 1] as usize, hop);
+            match nodes.star_of[path[k + 1] as usize].and_then(|i| name_of(stars[i as usize].id)) {
+                Some(name) => format!("{name}, {w}"),
+                None => w,
+            }
         };
-        let from = if k == 0 { start_label.to_string() } else { format!("star {k}") };
+        let from = if k == 0 {
+            start_label.to_string()
+        } else {
+            match nodes.star_of[path[k] as usize].and_then(|i| name_of(stars[i as usize].id)) {
+                Some(name) => name,
+                None => format!("star {k}"),
+            }
+        };
         let sentence = format!(
             "Step {}: from {from}, move {} ({}) {words} to {lands_on}.",
             k + 1,
