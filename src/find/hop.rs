@@ -11,6 +11,7 @@
 //! few decades is far below a finder's resolution and is ignored here.
 
 use super::finder::Finder;
+use super::legs::{legs, Leg};
 use super::geom::{offset_by, pa_rad, sep_rad, unit, wrap_2pi};
 use super::{check, FindError};
 use crate::sky::Equatorial;
@@ -93,6 +94,8 @@ pub struct HopStep {
 pub struct Route {
     pub points: Vec<RoutePoint>,
     pub steps: Vec<HopStep>,
+    /// Runs of same-direction hops, one instruction each.
+    pub legs: Vec<Leg>,
     pub hop_count: usize,
     pub total_rad: f64,
     pub max_hop_rad: f64,
@@ -499,6 +502,7 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         });
     }
     Route {
+        legs: legs(&points, &steps, diameter),
         points,
         steps,
         hop_count: last,

@@ -10,6 +10,7 @@ pub mod circles;
 pub mod finder;
 pub mod geom;
 pub mod hop;
+pub mod legs;
 pub mod words;
 
 use core::fmt;
