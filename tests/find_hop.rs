@@ -174,3 +174,36 @@ proptest! {
         }
     }
 }
+
+#[test]
+fn named_stars_appear_in_the_steps() {
+    let f = finder();
+    let stars = vec![
+        HopStar { ra_rad: 0.0, dec_rad: 0.0, vmag: 1.0, id: 10 },
+        HopStar { ra_rad: 0.0, dec_rad: 2.0f64.to_radians(), vmag: 3.0, id: 11 },
+    ];
+    let name = |id: u32| if id == 11 { Some("Middle".to_string()) } else { None };
+    let r = plan_route_named(&stars, 0, "Start", eq(0.0, 4.0), "T", &f, 9.0, UpReference::North, &HopRules::default(), &name).unwrap();
+    assert_eq!(r.points[1].label, "Middle");
+    assert!(r.steps[0].lands_on.starts_with("Middle, a mag 3.0 star"), "the start (mag 1) is brighter and in the same field: {}", r.steps[0].lands_on);
+    assert!(r.steps[1].sentence.starts_with("Step 2: from Middle, move "), "{}", r.steps[1].sentence);
+}
+
+/// Legs group consecutive hops with equal direction words and add up to the route.
+#[test]
+fn legs_group_same_direction_hops() {
+    let f = finder(); // hop limit 2.4°
+    let stars: Vec<HopStar> = (0..5)
+        .map(|k| HopStar { ra_rad: 0.0, dec_rad: (2.0 * k as f64).to_radians(), vmag: if k == 0 { 1.0 } else { 5.0 }, id: k })
+        .chain(std::iter::once(HopStar { ra_rad: 2.0f64.to_radians(), dec_rad: 8.0f64.to_radians(), vmag: 5.0, id: 9 }))
+        .collect();
+    let r = plan_route(&stars, 0, "Start", eq(4.0, 8.0), "T", &f, 9.0, UpReference::North, &HopRules::default()).unwrap();
+    assert_eq!(r.hop_count, 6);
+    assert_eq!(r.legs.len(), 2, "{:#?}", r.legs);
+    assert_eq!(r.legs[0].direction_words, "north");
+    assert_eq!((r.legs[0].first_step, r.legs[0].last_step), (0, 3));
+    assert!(r.legs[1].direction_words.contains("east"));
+    let sum: f64 = r.legs.iter().map(|l| l.length_rad).sum();
+    assert!((sum - r.total_rad).abs() < 1e-12);
+    assert!(r.legs[0].sentence.starts_with("From Start, go about 1.3 fields (8.0°) north in four hops, to "), "{}", r.legs[0].sentence);
+}

@@ -11,6 +11,7 @@
 //! few decades is far below a finder's resolution and is ignored here.
 
 use super::finder::Finder;
+use super::legs::{legs, Leg};
 use super::geom::{offset_by, pa_rad, sep_rad, unit, wrap_2pi};
 use super::{check, FindError};
 use crate::sky::Equatorial;
@@ -93,6 +94,8 @@ pub struct HopStep {
 pub struct Route {
     pub points: Vec<RoutePoint>,
     pub steps: Vec<HopStep>,
+    /// Runs of same-direction hops, one instruction each.
+    pub legs: Vec<Leg>,
     pub hop_count: usize,
     pub total_rad: f64,
     pub max_hop_rad: f64,
@@ -202,6 +205,7 @@ fn key(v: DVec3, cell: f64) -> (i32, i32, i32) {
 /// Plan a star-hop route from `stars[start]` to the target through stars of
 /// `stars` (any superset of the region, e.g. a cone from `route_region`).
 /// `finder_limit_mag` comes from `Finder::limiting_mag`.
+#[allow(clippy::too_many_arguments)]
 pub fn plan_route(
     stars: &[HopStar],
     start: usize,
@@ -212,6 +216,24 @@ pub fn plan_route(
     finder_limit_mag: f64,
     up: UpReference,
     rules: &HopRules,
+) -> Result<Route, FindError> {
+    plan_route_named(stars, start, start_label, target, target_label, finder, finder_limit_mag, up, rules, &|_| None)
+}
+
+/// As `plan_route`, with `name_of` giving a star's proper name (by its `id`)
+/// for the step words and labels ("to Muphrid (mag 2.7)").
+#[allow(clippy::too_many_arguments)]
+pub fn plan_route_named(
+    stars: &[HopStar],
+    start: usize,
+    start_label: &str,
+    target: Equatorial,
+    target_label: &str,
+    finder: &Finder,
+    finder_limit_mag: f64,
+    up: UpReference,
+    rules: &HopRules,
+    name_of: &dyn Fn(u32) -> Option<String>,
 ) -> Result<Route, FindError> {
     if start >= stars.len() {
         return Err(FindError::BadIndex { field: "starting star", index: start, len: stars.len() });
@@ -232,7 +254,7 @@ pub fn plan_route(
     for w in corridor_widths(d, hop) {
         match search(stars, start, target, hop, star_limit, d, w) {
             Ok((nodes, path)) => {
-                return Ok(describe(stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up));
+                return Ok(describe(stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
             }
             Err(e) => last_err = Some(e),
         }
@@ -250,11 +272,22 @@ fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_li
     let s0 = stars[start].pos();
     let mut star_of = vec![Some(start as u32)];
     let mut pos = vec![s0];
+    // Cheap cuts first (declination band, then one dot product against the
+    // enclosing cone), the exact corridor test last.
+    let mid = offset_by(s0, pa_rad(s0, target), d / 2.0);
+    let cone = (d / 2.0 + w).min(core::f64::consts::PI);
+    let (mid_v, cos_cone) = (unit(mid), libm::cos(cone));
     for (i, s) in stars.iter().enumerate() {
         if i == start || !((s.vmag as f64) <= star_limit) || !s.ra_rad.is_finite() || !s.dec_rad.is_finite() {
             continue;
         }
+        if (s.dec_rad - mid.dec_rad).abs() > cone {
+            continue;
+        }
         let p = s.pos();
+        if unit(p).dot(mid_v) < cos_cone {
+            continue;
+        }
         if sep_rad(p, s0) + sep_rad(p, target) <= d + 2.0 * w {
             star_of.push(Some(i as u32));
             pos.push(p);
@@ -404,7 +437,7 @@ fn landing_words(stars: &[HopStar], nodes: &Nodes, grid: &Grid, vs: &[DVec3], no
 }
 
 #[allow(clippy::too_many_arguments)]
-fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, target_label: &str, finder: &Finder, hop: f64, star_limit: f64, up: UpReference) -> Route {
+fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, target_label: &str, finder: &Finder, hop: f64, star_limit: f64, up: UpReference, name_of: &dyn Fn(u32) -> Option<String>) -> Route {
     let vs: Vec<DVec3> = nodes.pos.iter().map(|p| unit(*p)).collect();
     let grid = Grid::new(&vs, 2.0 * libm::sin(hop / 2.0) * 1.000001);
     let last = path.len() - 1;
@@ -417,7 +450,7 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         } else if k == last {
             target_label.to_string()
         } else {
-            format!("{}", k)
+            star.and_then(|s| name_of(s.id)).unwrap_or_else(|| format!("{}", k))
         };
         points.push(RoutePoint { pos: nodes.pos[n], vmag: star.map(|s| s.vmag), star_id: star.map(|s| s.id), label });
     }
@@ -437,9 +470,20 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         let lands_on = if k + 1 == last {
             format!("{target_label}, which should now sit in the main telescope's field")
         } else {
-            landing_words(stars, nodes, &grid, &vs, path[k + 1] as usize, hop)
+            let w = landing_words(stars, nodes, &grid, &vs, path[k + 1] as usize, hop);
+            match nodes.star_of[path[k + 1] as usize].and_then(|i| name_of(stars[i as usize].id)) {
+                Some(name) => format!("{name}, {w}"),
+                None => w,
+            }
         };
-        let from = if k == 0 { start_label.to_string() } else { format!("star {k}") };
+        let from = if k == 0 {
+            start_label.to_string()
+        } else {
+            match nodes.star_of[path[k] as usize].and_then(|i| name_of(stars[i as usize].id)) {
+                Some(name) => name,
+                None => format!("star {k}"),
+            }
+        };
         let sentence = format!(
             "Step {}: from {from}, move {} ({}) {words} to {lands_on}.",
             k + 1,
@@ -458,6 +502,7 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         });
     }
     Route {
+        legs: legs(&points, &steps, diameter),
         points,
         steps,
         hop_count: last,

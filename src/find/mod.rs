@@ -5,10 +5,12 @@
 //! catalog places); this module adds geometry and words. Sky offsets follow
 //! `orient.rs`: (east, north) radians → screen (right, up).
 
+pub mod bench;
 pub mod circles;
 pub mod finder;
 pub mod geom;
 pub mod hop;
+pub mod legs;
 pub mod words;
 
 use core::fmt;
