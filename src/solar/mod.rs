@@ -8,6 +8,8 @@
 pub mod ephemeris;
 pub mod apparent;
 pub mod geometry;
+pub mod jupiter;
+pub mod jupiter_events;
 pub mod physical;
 pub mod state;
 
