@@ -10,7 +10,7 @@ self.addEventListener('install', (event) => {
     const cache = await caches.open(CACHE);
     await cache.addAll(list.shell.map((u) => new Request(u, { cache: 'no-cache' })));
     for (const tier of list.tiers) {
-      await cache.addAll(tier.files.map((u) => new Request(u, { cache: 'no-cache' })));
+      await cache.addAll(tier.catalogs.map((c) => new Request(c.file, { cache: 'no-cache' })));
     }
     // First install: take over at once. An update waits for the page to ask.
     if (!self.registration.active) await self.skipWaiting();

@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
 export const WWW = path.resolve(HERE, '../../www');
+const CATALOG = path.resolve(HERE, '../../catalog');
 
 const MIME = {
   '.html': 'text/html; charset=utf-8', '.js': 'text/javascript; charset=utf-8', '.mjs': 'text/javascript; charset=utf-8',
@@ -29,7 +30,12 @@ export async function startServer({ root = WWW, port = 0 } = {}) {
       if (p.endsWith('/')) p += 'index.html';
       const file = path.resolve(root, `.${p}`);
       if (!file.startsWith(path.resolve(root) + path.sep)) return send(res, 403, 'text/plain', 'forbidden');
-      const body = await fs.readFile(file);
+      let body;
+      try { body = await fs.readFile(file); } catch (e) {
+        // www/catalog/ may not be populated (the build copies it for dist): fall back to the repo's catalog/.
+        if (e.code !== 'ENOENT' || !p.startsWith('/catalog/')) throw e;
+        body = await fs.readFile(path.resolve(CATALOG, `.${p.slice('/catalog'.length)}`));
+      }
       send(res, 200, MIME[path.extname(file)] || 'application/octet-stream', body);
     } catch (e) {
       send(res, e.code === 'ENOENT' || e.code === 'EISDIR' ? 404 : 500, 'text/plain', e.code === 'ENOENT' ? 'not found' : 'error');

@@ -115,7 +115,7 @@ const app = {
   paintAll() {
     const night = document.documentElement.dataset.night === '1';
     try {
-      paint(this.host, null, $('view'), night);
+      paint(this.host, null, $('view'), night, this.state.view.labels !== false);
       const ep = this.currentEyepiece();
       $('view-caption').textContent = `${this.station()?.name || ''}${ep ? ` · ${ep.name}` : ''}`;
       if (this.state.view.compare) this.paintCompare(night);
@@ -152,7 +152,7 @@ const app = {
     const eng2 = this.host.secondary('compare');
     const sc = toScenario(this.state, over);
     this.host.call((e) => e.setScenario(sc), eng2);
-    paint(this.host, eng2, $('view2'), night);
+    paint(this.host, eng2, $('view2'), night, this.state.view.labels !== false);
     const s2 = this.state.kit.stations.find((s) => s.id === (over.stationId || st.id));
     const ep2 = this.state.kit.items.find((i) => i.id === s2.eyepieces[over.eyepieceIndex]);
     $('view2-caption').textContent = `${s2.name}${ep2 ? ` · ${ep2.name}` : ''}`;
@@ -232,7 +232,7 @@ function defaultState(kit) {
   const site = demoSite();
   const today = utcToZoned(Date.now(), site.tz).date;
   return { kit, site, utc_ms: zonedToUtcMs(today, '21:00', site.tz), stationId: kit.stations[0]?.id || null, eyepieceIndex: 0,
-    target: 'M 45', view: { north_up: false, compare: false, night: false } };
+    target: 'M 45', view: { north_up: false, compare: false, night: false, labels: true } };
 }
 
 function restoreSession(state) {
@@ -289,6 +289,8 @@ function initView() {
   $('recentre').addEventListener('click', () => app.apply());
   const nu = $('north-up'); nu.checked = !!app.state.view.north_up;
   nu.addEventListener('change', () => { app.state.view.north_up = nu.checked; app.apply(); });
+  const lab = $('labels'); lab.checked = app.state.view.labels !== false;
+  lab.addEventListener('change', () => { app.state.view.labels = lab.checked; app.paintAll(); app.saveSession(); });
   const cmp = $('compare'); cmp.checked = !!app.state.view.compare;
   const syncCompare = () => { $('compare-box').hidden = !cmp.checked; $('views').classList.toggle('two', cmp.checked); };
   syncCompare();
@@ -355,7 +357,9 @@ async function loadCatalogs(tiers) {
     }
     // Paint as soon as the first (bright) tier is in; deeper tiers repaint when they arrive.
     app.apply();
+    document.documentElement.dataset.tiers = [document.documentElement.dataset.tiers, tier.id].filter(Boolean).join(' ');
   }
+  document.documentElement.dataset.allData = '1';
 }
 
 async function main() {

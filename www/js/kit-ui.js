@@ -98,9 +98,9 @@ function editItem(app, id) {
     inputs[key] = el('input', { type: 'number', step: 'any', inputMode: 'decimal', name: key, min: String(min), max: String(max), required, value: it[key] ?? '' });
     kids.push(field(label, inputs[key]));
   }
-  for (const [key, allowed] of Object.entries(def.choices || {})) {
-    inputs[key] = el('select', { name: key }, ...allowed.map((a) => el('option', { value: a, textContent: a, selected: it[key] === a })));
-    kids.push(field(key === 'design' ? 'Design' : 'Mount', inputs[key]));
+  for (const [key, options] of Object.entries(def.choices || {})) {
+    inputs[key] = el('select', { name: key }, ...options.map(([v, label]) => el('option', { value: v, textContent: label, selected: it[key] === v })));
+    kids.push(field({ design: 'Design', mount: 'Mount', prism: 'Type' }[key] || key, inputs[key]));
   }
   const save = el('button', { className: 'btn primary', type: 'submit', textContent: 'Save' });
   const cancel = el('button', { className: 'btn', type: 'button', textContent: 'Cancel' });

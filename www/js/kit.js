@@ -10,21 +10,22 @@ export const FILE_FORMAT = 'nightfield-kit';
 // Field definitions per kind: [key, label, min, max, required]. Units in the key names.
 export const KINDS = {
   telescope: { label: 'Telescope', fields: [['aperture_mm', 'Aperture (mm)', 10, 2000, true], ['focal_mm', 'Focal length (mm)', 50, 20000, true]],
-    choices: { design: ['refractor', 'newtonian', 'cassegrain'], mount: ['alt-azimuth', 'equatorial', 'dobsonian'] } },
+    choices: { design: [['refractor', 'refractor'], ['newtonian', 'Newtonian'], ['schmidt_cassegrain', 'Schmidt-Cassegrain'], ['maksutov_cassegrain', 'Maksutov-Cassegrain'], ['classical_cassegrain', 'classical Cassegrain']],
+      mount: [['alt_az', 'alt-azimuth'], ['dobsonian', 'Dobsonian (rocker box)'], ['equatorial', 'equatorial']] } },
   eyepiece: { label: 'Eyepiece', fields: [['focal_mm', 'Focal length (mm)', 1, 100, true], ['afov_deg', 'Apparent field (°)', 20, 120, true], ['field_stop_mm', 'Field stop (mm, optional)', 1, 80, false]] },
   barlow: { label: 'Barlow lens / focal reducer', fields: [['factor', 'Factor (×, below 1 for a reducer)', 0.2, 6, true]] },
-  diagonal: { label: 'Diagonal', fields: [], choices: { design: ['mirror diagonal', 'prism diagonal', 'erecting prism'] } },
+  diagonal: { label: 'Diagonal', fields: [], choices: { prism: [['mirror90', '90° mirror diagonal'], ['prism90', '90° prism diagonal'], ['erecting_roof45', '45° erecting prism'], ['erecting_roof90', '90° erecting prism']] } },
   camera: { label: 'Camera', fields: [['width_px', 'Width (pixels)', 16, 20000, true], ['height_px', 'Height (pixels)', 16, 20000, true], ['pixel_um', 'Pixel size (µm)', 0.5, 30, true]] },
   binocular: { label: 'Binoculars', fields: [['aperture_mm', 'Aperture (mm)', 10, 200, true], ['magnification', 'Magnification (×)', 1, 100, true], ['tfov_deg', 'True field (°)', 0.5, 20, true]] },
 };
 
 // Generic presets (no brands): common sizes of the trade.
 export const PRESETS = [
-  { kind: 'telescope', name: '80/600 refractor', aperture_mm: 80, focal_mm: 600, design: 'refractor', mount: 'alt-azimuth' },
-  { kind: 'telescope', name: '102/1300 Maksutov', aperture_mm: 102, focal_mm: 1300, design: 'cassegrain', mount: 'alt-azimuth' },
+  { kind: 'telescope', name: '80/600 refractor', aperture_mm: 80, focal_mm: 600, design: 'refractor', mount: 'alt_az' },
+  { kind: 'telescope', name: '102/1300 Maksutov', aperture_mm: 102, focal_mm: 1300, design: 'maksutov_cassegrain', mount: 'alt_az' },
   { kind: 'telescope', name: '130/650 Newtonian on an equatorial mount', aperture_mm: 130, focal_mm: 650, design: 'newtonian', mount: 'equatorial' },
   { kind: 'telescope', name: '200/1200 Newtonian on a rocker mount', aperture_mm: 200, focal_mm: 1200, design: 'newtonian', mount: 'dobsonian' },
-  { kind: 'telescope', name: '203/2032 Schmidt-Cassegrain', aperture_mm: 203, focal_mm: 2032, design: 'cassegrain', mount: 'alt-azimuth' },
+  { kind: 'telescope', name: '203/2032 Schmidt-Cassegrain', aperture_mm: 203, focal_mm: 2032, design: 'schmidt_cassegrain', mount: 'alt_az' },
   { kind: 'eyepiece', name: '32 mm 50°', focal_mm: 32, afov_deg: 50 },
   { kind: 'eyepiece', name: '25 mm 52°', focal_mm: 25, afov_deg: 52 },
   { kind: 'eyepiece', name: '15 mm 60°', focal_mm: 15, afov_deg: 60 },
@@ -32,8 +33,8 @@ export const PRESETS = [
   { kind: 'eyepiece', name: '6 mm 60°', focal_mm: 6, afov_deg: 60 },
   { kind: 'barlow', name: '2× Barlow lens', factor: 2 },
   { kind: 'barlow', name: '0.63× focal reducer', factor: 0.63 },
-  { kind: 'diagonal', name: '90° mirror diagonal', design: 'mirror diagonal' },
-  { kind: 'diagonal', name: '45° erecting prism', design: 'erecting prism' },
+  { kind: 'diagonal', name: '90° mirror diagonal', prism: 'mirror90' },
+  { kind: 'diagonal', name: '45° erecting prism', prism: 'erecting_roof45' },
   { kind: 'camera', name: 'small-sensor camera, 1920×1080, 2.9 µm', width_px: 1920, height_px: 1080, pixel_um: 2.9 },
   { kind: 'binocular', name: '10×50 binoculars', aperture_mm: 50, magnification: 10, tfov_deg: 6.5 },
 ];
@@ -53,12 +54,12 @@ export function itemFromPreset(p) {
 export function demoKit() {
   const items = [
     { id: 'tel-a', kind: 'telescope', name: '200/1200 Newtonian on a rocker mount', aperture_mm: 200, focal_mm: 1200, design: 'newtonian', mount: 'dobsonian' },
-    { id: 'tel-b', kind: 'telescope', name: '80/600 refractor', aperture_mm: 80, focal_mm: 600, design: 'refractor', mount: 'alt-azimuth' },
+    { id: 'tel-b', kind: 'telescope', name: '80/600 refractor', aperture_mm: 80, focal_mm: 600, design: 'refractor', mount: 'alt_az' },
     { id: 'ep-32', kind: 'eyepiece', name: '32 mm 50°', focal_mm: 32, afov_deg: 50 },
     { id: 'ep-25', kind: 'eyepiece', name: '25 mm 52°', focal_mm: 25, afov_deg: 52 },
     { id: 'ep-10', kind: 'eyepiece', name: '10 mm 52°', focal_mm: 10, afov_deg: 52 },
     { id: 'ep-6', kind: 'eyepiece', name: '6 mm 60°', focal_mm: 6, afov_deg: 60 },
-    { id: 'dia-m', kind: 'diagonal', name: '90° mirror diagonal', design: 'mirror diagonal' },
+    { id: 'dia-m', kind: 'diagonal', name: '90° mirror diagonal', prism: 'mirror90' },
     { id: 'bar-2', kind: 'barlow', name: '2× Barlow lens', factor: 2 },
     { id: 'bin-1', kind: 'binocular', name: '10×50 binoculars', aperture_mm: 50, magnification: 10, tfov_deg: 6.5 },
   ];
@@ -98,7 +99,8 @@ export function validateKit(k) {
       if (!num(v) || v < min || v > max) throw new KitError(`${where}: "${label}" is ${JSON.stringify(v)}; allowed ${min} to ${max}.`);
       out[key] = v;
     }
-    for (const [key, allowed] of Object.entries(def.choices || {})) {
+    for (const [key, options] of Object.entries(def.choices || {})) {
+      const allowed = options.map((o) => o[0]);
       const v = it[key] ?? allowed[0];
       if (!allowed.includes(v)) throw new KitError(`${where}: "${key}" is "${v}"; allowed: ${allowed.join(', ')}.`);
       out[key] = v;
@@ -206,12 +208,17 @@ export function removeItem(kit, id) {
   return { ...kit, items, stations };
 }
 
+export function choiceLabel(kind, key, value) {
+  const o = (KINDS[kind].choices?.[key] || []).find((c) => c[0] === value);
+  return o ? o[1] : String(value);
+}
+
 export function describeItem(it) {
   switch (it.kind) {
-    case 'telescope': return `${it.aperture_mm} mm, f = ${it.focal_mm} mm (f/${(it.focal_mm / it.aperture_mm).toFixed(1)}), ${it.design}, ${it.mount}`;
+    case 'telescope': return `${it.aperture_mm} mm, f = ${it.focal_mm} mm (f/${(it.focal_mm / it.aperture_mm).toFixed(1)}), ${choiceLabel('telescope', 'design', it.design)}, ${choiceLabel('telescope', 'mount', it.mount)}`;
     case 'eyepiece': return `${it.focal_mm} mm, ${it.afov_deg}° apparent${it.field_stop_mm ? `, field stop ${it.field_stop_mm} mm` : ''}`;
     case 'barlow': return `${it.factor}× ${it.factor < 1 ? 'focal reducer' : 'Barlow lens'}`;
-    case 'diagonal': return it.design;
+    case 'diagonal': return choiceLabel('diagonal', 'prism', it.prism);
     case 'camera': return `${it.width_px}×${it.height_px} px, ${it.pixel_um} µm`;
     case 'binocular': return `${it.magnification}×${it.aperture_mm}, ${it.tfov_deg}° field`;
     default: return '';

@@ -13,7 +13,7 @@ export async function tierStatus(tiers) {
   const out = [];
   if (!('caches' in window)) return tiers.tiers.map((t) => ({ ...t, ready: false }));
   const names = (await caches.keys()).filter((n) => n.startsWith('nightfield-'));
-  for (const t of [{ id: 'shell', label: 'App and sky engine', files: tiers.shell }, ...tiers.tiers]) {
+  for (const t of [{ id: 'shell', label: 'App and sky engine', files: tiers.shell }, ...tiers.tiers.map((x) => ({ ...x, files: x.catalogs.map((c) => c.file) }))]) {
     let ready = names.length > 0;
     for (const f of t.files) {
       const url = new URL(f, new URL('../', import.meta.url)).href;

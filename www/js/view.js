@@ -12,7 +12,7 @@ export function sizeCanvas(canvas) {
 const LABEL_FONT = (dpr) => `${Math.round(14 * dpr)}px system-ui, sans-serif`;
 
 /** Render with `engine` into `canvas`; returns the engine's render info. */
-export function paint(host, engine, canvas, night) {
+export function paint(host, engine, canvas, night, labels = true) {
   const { w, h, dpr } = sizeCanvas(canvas);
   const info = host.call((e) => e.render(w, h, dpr), engine);
   const ctx = canvas.getContext('2d');
@@ -20,7 +20,7 @@ export function paint(host, engine, canvas, night) {
   ctx.font = LABEL_FONT(dpr);
   ctx.textBaseline = 'middle';
   ctx.fillStyle = night ? '#ff3020' : '#d8e4ee';
-  for (const l of info.labels || []) {
+  for (const l of labels ? info.labels || [] : []) {
     if (typeof l.text !== 'string') continue;
     ctx.fillText(l.text, l.x, l.y);
   }
