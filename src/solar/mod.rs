@@ -12,9 +12,11 @@ pub mod jupiter;
 pub mod jupiter_events;
 pub mod physical;
 pub mod state;
+pub mod topocentric;
 
 pub use ephemeris::{Ephemeris, EphemerisError, OutOfCoverage, Series, AU_KM};
 pub use state::{body_state_from, BodyState};
+pub use topocentric::{all_bodies, apparent_place, body_apparent, body_horizontal};
 
 use serde::{Deserialize, Serialize};
 use std::fmt;
