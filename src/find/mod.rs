@@ -11,6 +11,7 @@ pub mod finder;
 pub mod geom;
 pub mod hop;
 pub mod legs;
+pub mod sources;
 pub mod words;
 
 use core::fmt;
