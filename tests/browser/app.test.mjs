@@ -149,3 +149,25 @@ test('a link with another kit asks before replacing the saved kit', async (t) =>
   const adopted = await savedKit(b.page);
   assert.ok(adopted.items.some((i) => i.id === 'ep-6'), 'adopted the link kit after asking');
 });
+
+test('a dead wasm instance is reported and replaced; nothing saved is lost', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  const kit = await savedKit(page);
+  const before = await canvasBytes(page);
+  // Make the next render trap the way a Rust panic (panic = abort) does: a WebAssembly.RuntimeError.
+  await page.evaluate(async () => {
+    const m = await import('/pkg/nightfield.js');
+    m.Engine.prototype.render = function () { throw new WebAssembly.RuntimeError('unreachable'); };
+  });
+  await page.click('#north-up');
+  await page.click('#north-up');
+  await page.waitForFunction(() => /restarted/.test(document.getElementById('alert').textContent), null, { timeout: 20000 });
+  assert.match(await page.locator('#alert').textContent(), /sky engine stopped.*restarted.*Nothing saved was lost/);
+  // The new instance (a fresh module record) paints the same view again.
+  await page.waitForFunction(() => document.querySelector('#view').getContext('2d').getImageData(0, 0, 1, 1) && true);
+  const after = await canvasBytes(page);
+  assert.deepEqual(after, before);
+  assert.deepEqual(await savedKit(page), kit);
+  assert.deepEqual(errors, []);
+});
