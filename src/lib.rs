@@ -11,6 +11,7 @@ pub mod plan;
 pub mod render;
 pub mod scenario;
 pub mod scene;
+pub mod share;
 pub mod sky;
 pub mod solar;
 pub mod time;

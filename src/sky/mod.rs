@@ -4,7 +4,12 @@
 //! Shared value types live here so every module speaks the same units:
 //! radians inside, degrees only at the edges (JSON, words).
 
+pub mod apparent;
 pub mod catalog;
+pub mod earth_ephem;
+pub mod frames;
+pub mod horizon;
+pub mod nutation;
 
 use serde::{Deserialize, Serialize};
 

@@ -1,1 +1,101 @@
-//! (being built)
+//! The Sun, the Moon and the planets: positions from compact Chebyshev fits to
+//! JPL DE421 (catalog/ephemeris.bin), apparent topocentric places, physical
+//! ephemerides, Jupiter's Galilean moons, Saturn's rings, the Moon's libration.
+//!
+//! Invariants: radians and AU inside; TT/TDB Julian dates; every public
+//! routine that a user date reaches returns `SolarError` instead of panicking.
+
+pub mod ephemeris;
+pub mod apparent;
+pub mod geometry;
+pub mod jupiter;
+pub mod jupiter_events;
+pub mod physical;
+pub mod state;
+pub mod topocentric;
+
+pub use ephemeris::{Ephemeris, EphemerisError, OutOfCoverage, Series, AU_KM};
+pub use state::{body_state_from, BodyState};
+pub use topocentric::{all_bodies, apparent_place, body_apparent, body_horizontal};
+
+use serde::{Deserialize, Serialize};
+use std::fmt;
+
+/// A solar-system body the engine can point at.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "lowercase")]
+pub enum BodyId {
+    Sun,
+    Moon,
+    Mercury,
+    Venus,
+    Mars,
+    Jupiter,
+    Saturn,
+    Uranus,
+    Neptune,
+}
+
+impl BodyId {
+    pub const ALL: [BodyId; 9] = [
+        BodyId::Sun,
+        BodyId::Moon,
+        BodyId::Mercury,
+        BodyId::Venus,
+        BodyId::Mars,
+        BodyId::Jupiter,
+        BodyId::Saturn,
+        BodyId::Uranus,
+        BodyId::Neptune,
+    ];
+
+    /// Lower-case English name ("sun", "moon", "mercury", ...).
+    pub fn name(self) -> &'static str {
+        match self {
+            BodyId::Sun => "sun",
+            BodyId::Moon => "moon",
+            BodyId::Mercury => "mercury",
+            BodyId::Venus => "venus",
+            BodyId::Mars => "mars",
+            BodyId::Jupiter => "jupiter",
+            BodyId::Saturn => "saturn",
+            BodyId::Uranus => "uranus",
+            BodyId::Neptune => "neptune",
+        }
+    }
+
+    /// Parse a name, case-insensitive ("Moon", "jupiter").
+    pub fn from_name(s: &str) -> Option<BodyId> {
+        let s = s.trim();
+        BodyId::ALL.iter().copied().find(|b| b.name().eq_ignore_ascii_case(s))
+    }
+}
+
+/// Why a solar-system computation could not be done.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum SolarError {
+    /// The date is outside the ephemeris coverage.
+    OutOfCoverage { tt_jd: f64, start_jd: f64, end_jd: f64 },
+    /// A time input was not a finite number.
+    NotFinite { field: &'static str },
+}
+
+impl fmt::Display for SolarError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            SolarError::OutOfCoverage { tt_jd, start_jd, end_jd } => write!(
+                f,
+                "date (TT Julian date {tt_jd:.3}) is outside the planet ephemeris, which covers \
+                 Julian dates {start_jd:.1} to {end_jd:.1} (1950-01-01 to 2050-12-05)"
+            ),
+            SolarError::NotFinite { field } => write!(f, "{field} must be a finite number"),
+        }
+    }
+}
+impl std::error::Error for SolarError {}
+
+impl From<OutOfCoverage> for SolarError {
+    fn from(e: OutOfCoverage) -> Self {
+        SolarError::OutOfCoverage { tt_jd: e.tdb_jd, start_jd: e.start_jd, end_jd: e.end_jd }
+    }
+}

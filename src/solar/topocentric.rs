@@ -1,0 +1,53 @@
+//! Topocentric apparent places for a site and instant: the sky core's WGS84
+//! site position (GAST rotation) and IAU 2006/2000B NPB matrix, fed into
+//! `apparent.rs`; plus the body state and horizon coordinates built on them.
+
+use super::apparent::{apparent_from_site_gcrs, Apparent};
+use super::state::{body_state_from, BodyState};
+use super::{BodyId, Ephemeris, SolarError};
+use crate::sky::frames::npb_matrix;
+use crate::sky::horizon::{observer_position_of_date_m, observer_velocity_of_date_m_s, to_horizontal};
+use crate::sky::{Horizontal, Site};
+use crate::time::Instant;
+
+fn check(t: &Instant, site: &Site) -> Result<(), SolarError> {
+    if !(t.tt_jd.is_finite() && t.ut1_jd.is_finite()) {
+        return Err(SolarError::NotFinite { field: "instant" });
+    }
+    if !(site.lat_rad.is_finite() && site.lon_rad.is_finite() && site.elev_m.is_finite()) {
+        return Err(SolarError::NotFinite { field: "site" });
+    }
+    Ok(())
+}
+
+/// Topocentric apparent place (true equator and equinox of date) of a body.
+pub fn apparent_place(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<Apparent, SolarError> {
+    check(t, site)?;
+    let npb = npb_matrix(t.tt_jd);
+    let m = npb.transpose();
+    let r = m * observer_position_of_date_m(site, t);
+    let v = m * observer_velocity_of_date_m_s(site, t);
+    apparent_from_site_gcrs(eph, body, t.tt_jd, &npb, r, v)
+}
+
+/// A body's topocentric apparent place and physical ephemeris.
+pub fn body_apparent(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<BodyState, SolarError> {
+    let a = apparent_place(eph, body, t, site)?;
+    let sun = if body == BodyId::Sun { a } else { apparent_place(eph, BodyId::Sun, t, site)? };
+    Ok(body_state_from(body, &a, &sun))
+}
+
+/// All nine bodies at one instant (the Sun's place computed once).
+pub fn all_bodies(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<[BodyState; 9], SolarError> {
+    let sun = apparent_place(eph, BodyId::Sun, t, site)?;
+    let mut out = [body_state_from(BodyId::Sun, &sun, &sun); 9];
+    for (o, b) in out.iter_mut().zip(BodyId::ALL).skip(1) {
+        *o = body_state_from(b, &apparent_place(eph, b, t, site)?, &sun);
+    }
+    Ok(out)
+}
+
+/// Altitude/azimuth of a body (geometric: no refraction).
+pub fn body_horizontal(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<Horizontal, SolarError> {
+    Ok(to_horizontal(apparent_place(eph, body, t, site)?.ra_dec, site, t))
+}

@@ -1,0 +1,173 @@
+// The page in headless Chromium: screenshots, kit persistence, share links, bad links.
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { openBrowser, gotoReady, canvasBytes, screenshot, PHONE, DESKTOP } from './harness.mjs';
+import { linkPayload, readPayload } from './links.mjs';
+
+const savedKit = (page) => page.evaluate(() => JSON.parse(localStorage.getItem('nightfield.kit') || 'null'));
+
+test('phone, desktop and night screenshots; view painted; no console errors', async (t) => {
+  for (const [name, opts, night] of [['phone', PHONE, false], ['desktop', DESKTOP, false], ['phone-night', PHONE, true]]) {
+    const { page, server, errors } = await openBrowser(t, opts);
+    if (night) await page.addInitScript(() => localStorage.setItem('nightfield.night', '1'));
+    await gotoReady(page, server.url);
+    const px = await canvasBytes(page);
+    assert.ok(px.lit > 10, `${name}: the view shows stars (${px.lit} lit pixels)`);
+    if (night) {
+      // Whole page red on black: the body's computed colours have no green/blue.
+      const c = await page.evaluate(() => [getComputedStyle(document.body).color, getComputedStyle(document.body).backgroundColor]);
+      assert.match(c[0], /^rgb\(\d+, (\d|[1-4]\d), (\d|[1-4]\d)\)$/, `night text colour ${c[0]}`);
+      assert.equal(c[1], 'rgb(0, 0, 0)');
+    }
+    await screenshot(page, `${name}.png`);
+    assert.deepEqual(errors, [], `${name}: console errors`);
+  }
+});
+
+test('night mode is set before first paint (no white flash)', async (t) => {
+  const { page, server } = await openBrowser(t, PHONE);
+  await page.addInitScript(() => {
+    localStorage.setItem('nightfield.night', '1');
+    // Record the state at the first moment the body exists.
+    new MutationObserver((_, obs) => {
+      if (document.body) { window.__firstBodyNight = document.documentElement.dataset.night; window.__firstBg = getComputedStyle(document.documentElement).backgroundColor; obs.disconnect(); }
+    }).observe(document, { childList: true, subtree: true });
+  });
+  await gotoReady(page, server.url);
+  assert.equal(await page.evaluate(() => window.__firstBodyNight), '1');
+  assert.equal(await page.evaluate(() => window.__firstBg), 'rgb(0, 0, 0)');
+});
+
+test('kit add, edit and remove persist across reload', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.click('#tab-kit');
+  // Add a 15 mm eyepiece from the generic presets.
+  await page.selectOption('#preset', { label: 'Eyepiece: 15 mm 60°' });
+  await page.click('#preset-add');
+  let kit = await savedKit(page);
+  const added = kit.items.find((i) => i.name === '15 mm 60°');
+  assert.ok(added, 'added item saved');
+  // Edit it: 16 mm, renamed.
+  await page.click(`li[data-item="${added.id}"] >> text=Edit`);
+  await page.fill('#item-form input[name="name"]', 'Club 16 mm');
+  await page.fill('#item-form input[name="focal_mm"]', '16');
+  await page.click('#item-form button[type="submit"]');
+  // An out-of-range value is refused with a message, and nothing is saved.
+  await page.click(`li[data-item="${added.id}"] >> text=Edit`);
+  await page.fill('#item-form input[name="focal_mm"]', '400');
+  await page.click('#item-form button[type="submit"]');
+  assert.match(await page.locator('#alert').textContent(), /Focal length \(mm\).*allowed 1 to 100/);
+  await page.click('#item-form >> text=Cancel');
+  await page.reload();
+  await page.waitForFunction(() => document.documentElement.dataset.ready === '1');
+  kit = await savedKit(page);
+  const edited = kit.items.find((i) => i.id === added.id);
+  assert.equal(edited.name, 'Club 16 mm');
+  assert.equal(edited.focal_mm, 16);
+  // Remove the demo 32 mm eyepiece; stations drop it too.
+  await page.click('#tab-kit');
+  await page.click('li[data-item="ep-32"] >> text=Remove');
+  await page.reload();
+  await page.waitForFunction(() => document.documentElement.dataset.ready === '1');
+  kit = await savedKit(page);
+  assert.ok(!kit.items.some((i) => i.id === 'ep-32'));
+  assert.ok(kit.stations.every((s) => !s.eyepieces.includes('ep-32')));
+  assert.equal(kit.schema, 2);
+  await page.click('#tab-kit');
+  assert.equal(await page.locator('li[data-item="ep-32"]').count(), 0);
+  assert.equal(await page.locator(`li[data-item="${added.id}"]`).count(), 1);
+  assert.deepEqual(errors.filter((e) => !/allowed 1 to 100/.test(e)), []);
+});
+
+test('share link round trip gives identical canvas pixels', async (t) => {
+  const a = await openBrowser(t, DESKTOP);
+  await gotoReady(a.page, a.server.url);
+  // Change something so the link is not just the default.
+  await a.page.click('#ep-next');
+  await a.page.click('#tab-share');
+  const link = await a.page.inputValue('#share-link');
+  assert.match(link, /#s=[A-Za-z0-9_-]+$/);
+  assert.equal(readPayload(link.split('#s=')[1]).version, 1);
+  const before = await canvasBytes(a.page);
+  // A second, fresh browser (no saved kit) opens the link.
+  const b = await openBrowser(t, DESKTOP);
+  const url = link.replace(a.server.url, b.server.url);
+  await gotoReady(b.page, url);
+  const after = await canvasBytes(b.page);
+  assert.deepEqual(after, before);
+  // The QR code is drawn.
+  const qrW = await a.page.evaluate(() => document.getElementById('qr').width);
+  assert.ok(qrW >= 100);
+  assert.deepEqual([...a.errors, ...b.errors], []);
+});
+
+test('a bad link shows role="alert" and the saved kit survives', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.click('#tab-kit');
+  await page.selectOption('#preset', { label: 'Binoculars: 10×50 binoculars' });
+  await page.click('#preset-add');
+  const kitBefore = await savedKit(page);
+  const good = linkPayload({ version: 1, anything: true });
+  const cases = [
+    ['malformed', 'abc$%^'],
+    ['truncated', good.slice(0, good.length - 5)],
+    ['future version', linkPayload({ version: 99 }, 7)],
+  ];
+  for (const [what, payload] of cases) {
+    await page.goto(`${server.url}#s=${payload}`);
+    await page.reload();
+    const alert = page.locator('[role="alert"]#alert');
+    await alert.waitFor({ state: 'visible', timeout: 20000 });
+    const text = await alert.textContent();
+    assert.match(text, /share link/i, `${what}: ${text}`);
+    assert.match(text, /saved kit and settings are unchanged/, what);
+    if (what === 'future version') assert.match(text, /newer Nightfield/);
+    assert.deepEqual(await savedKit(page), kitBefore, `${what}: kit unchanged`);
+  }
+  assert.deepEqual(errors, []);
+});
+
+test('a link with another kit asks before replacing the saved kit', async (t) => {
+  const a = await openBrowser(t, DESKTOP);
+  await gotoReady(a.page, a.server.url);
+  await a.page.click('#tab-share');
+  const link = await a.page.inputValue('#share-link');
+  const b = await openBrowser(t, DESKTOP);
+  await gotoReady(b.page, b.server.url);
+  // b has its own kit: remove an eyepiece so it differs from a's.
+  await b.page.click('#tab-kit');
+  await b.page.click('li[data-item="ep-6"] >> text=Remove');
+  const kitB = await savedKit(b.page);
+  await gotoReady(b.page, link.replace(a.server.url, b.server.url));
+  await b.page.reload();
+  await b.page.waitForFunction(() => document.documentElement.dataset.ready === '1');
+  assert.equal(await b.page.locator('#link-banner').isVisible(), true);
+  assert.deepEqual(await savedKit(b.page), kitB, 'opening the link did not touch the saved kit');
+  await b.page.click('#link-adopt'); // confirm() is accepted by the harness
+  const adopted = await savedKit(b.page);
+  assert.ok(adopted.items.some((i) => i.id === 'ep-6'), 'adopted the link kit after asking');
+});
+
+test('a dead wasm instance is reported and replaced; nothing saved is lost', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  const kit = await savedKit(page);
+  const before = await canvasBytes(page);
+  // Make the next render trap the way a Rust panic (panic = abort) does: a WebAssembly.RuntimeError.
+  await page.evaluate(async () => {
+    const m = await import('/pkg/nightfield.js');
+    m.Engine.prototype.render = function () { throw new WebAssembly.RuntimeError('unreachable'); };
+  });
+  await page.click('#north-up');
+  await page.click('#north-up');
+  await page.waitForFunction(() => /restarted/.test(document.getElementById('alert').textContent), null, { timeout: 20000 });
+  assert.match(await page.locator('#alert').textContent(), /sky engine stopped.*restarted.*Nothing saved was lost/);
+  // The new instance (a fresh module record) paints the same view again.
+  await page.waitForFunction(() => document.querySelector('#view').getContext('2d').getImageData(0, 0, 1, 1) && true);
+  const after = await canvasBytes(page);
+  assert.deepEqual(after, before);
+  assert.deepEqual(await savedKit(page), kit);
+  assert.deepEqual(errors, []);
+});

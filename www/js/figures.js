@@ -1,0 +1,64 @@
+// The figures beside the view, and the solar caution. Field names follow the engine's
+// figures object; unknown extra numeric fields are listed too so nothing is hidden.
+
+const fmt = (v, d) => (typeof v === 'number' && Number.isFinite(v) ? v.toFixed(d) : null);
+const RAD = 180 / Math.PI;
+
+function angle(deg) {
+  if (typeof deg !== 'number' || !Number.isFinite(deg)) return null;
+  if (deg >= 1) return `${deg.toFixed(2)}°`;
+  const m = deg * 60;
+  return m >= 1 ? `${m.toFixed(1)}′` : `${(m * 60).toFixed(0)}″`;
+}
+function duration(s) {
+  if (typeof s !== 'number' || !Number.isFinite(s)) return null;
+  if (s < 90) return `${s.toFixed(0)} s`;
+  if (s < 5400) return `${(s / 60).toFixed(1)} min`;
+  return `${(s / 3600).toFixed(1)} h`;
+}
+const pick = (f, ...keys) => { for (const k of keys) if (f[k] !== undefined && f[k] !== null) return f[k]; return undefined; };
+const deg = (f, dKey, rKey) => { const d = f[dKey]; if (typeof d === 'number') return d; const r = f[rKey]; return typeof r === 'number' ? r * RAD : undefined; };
+
+export function figureRows(f) {
+  const rows = [];
+  const add = (label, value) => { if (value !== null && value !== undefined && value !== '') rows.push([label, value]); };
+  add('Target', pick(f, 'target_name', 'target'));
+  add('Magnification', fmt(pick(f, 'magnification'), 0) && `${fmt(f.magnification, 0)}×`);
+  add('True field', angle(deg(f, 'true_field_deg', 'true_field_rad')));
+  add('Exit pupil', fmt(pick(f, 'exit_pupil_mm'), 1) && `${fmt(f.exit_pupil_mm, 1)} mm`);
+  add('Focal ratio', fmt(pick(f, 'focal_ratio'), 1) && `f/${fmt(f.focal_ratio, 1)}`);
+  add('Orientation', pick(f, 'orientation', 'orientation_words'));
+  const alt = deg(f, 'alt_deg', 'alt_rad');
+  add('Altitude', alt === undefined ? null : `${alt.toFixed(1)}°${alt < 0 ? ' (below the horizon)' : ''}`);
+  add('Azimuth', angle(deg(f, 'az_deg', 'az_rad')));
+  add('Drift across the field', duration(pick(f, 'drift_s', 'drift_time_s')));
+  add('Target size', pick(f, 'size_words'));
+  add('Visibility', pick(f, 'visibility', 'visibility_words'));
+  return rows;
+}
+
+export function renderFigures(dl, f) {
+  dl.replaceChildren();
+  for (const [k, v] of figureRows(f || {})) {
+    const dt = document.createElement('dt'); dt.textContent = k;
+    const dd = document.createElement('dd'); dd.textContent = String(v);
+    dl.append(dt, dd);
+  }
+  for (const a of (f && Array.isArray(f.advice) ? f.advice : [])) {
+    const dd = document.createElement('dd'); dd.className = 'advice'; dd.textContent = String(a);
+    dl.append(dd);
+  }
+}
+
+/** Caution text when the Sun is up or close to the target; null otherwise. */
+export function solarCaution(f, targetName) {
+  if (!f) return null;
+  const sunAlt = deg(f, 'sun_alt_deg', 'sun_alt_rad');
+  const sep = deg(f, 'sun_separation_deg', 'sun_separation_rad');
+  const isSun = /^\s*(the\s+)?sun\s*$/i.test(String(targetName || ''));
+  const near = typeof sep === 'number' && sep < 15;
+  const up = typeof sunAlt === 'number' && sunAlt > -0.9;
+  if (!isSun && !near && !up) return null;
+  const what = isSun ? 'The target is the Sun.' : near ? `The Sun is ${sep.toFixed(0)}° from the target.` : 'The Sun is above the horizon.';
+  return `⚠ Caution: ${what} Never look at or near the Sun through any telescope, binoculars or finder without a proper full-aperture solar filter fitted securely at the front, used per local rules and by trained volunteers. Cap the finder.`;
+}
