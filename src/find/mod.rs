@@ -9,6 +9,7 @@ pub mod bench;
 pub mod circles;
 pub mod finder;
 pub mod geom;
+pub mod guide;
 pub mod hop;
 pub mod legs;
 pub mod sources;
