@@ -6,10 +6,13 @@
 
 pub mod apparent;
 pub mod catalog;
+pub mod darkness;
 pub mod earth_ephem;
 pub mod frames;
 pub mod horizon;
 pub mod nutation;
+pub mod refraction;
+pub mod riseset;
 
 use serde::{Deserialize, Serialize};
 

@@ -3,7 +3,7 @@ import { EngineHost } from './engine-host.js';
 import { loadKit, saveKit, KitError } from './kit.js';
 import { initKitUi, renderKit } from './kit-ui.js';
 import { initSiteUi, renderSite } from './site-ui.js';
-import { toScenario, fromScenario, demoSite } from './scenario.js';
+import { toScenario, fromScenario, demoSite, targetSpec, targetLabel } from './scenario.js';
 import { renderFigures, solarCaution } from './figures.js';
 import { paint, attachGestures } from './view.js';
 import { encodeQr, drawQr } from './qr.js';
@@ -102,7 +102,7 @@ const app = {
       return;
     }
     renderFigures($('figures'), this.figures);
-    const caution = solarCaution(this.figures, this.state.target);
+    const caution = solarCaution(this.figures, targetLabel(this.state.target));
     $('solar-caution').hidden = !caution;
     $('solar-caution').textContent = caution || '';
     this.paintAll();
@@ -214,7 +214,7 @@ const app = {
       this.showError(`"${query}" was not found: ${e.message}`);
       return false;
     }
-    this.state.target = (resolved && (resolved.query || resolved.name)) || query;
+    this.state.target = { by: 'name', name: query };
     $('target-now').textContent = `Showing ${resolved && resolved.name ? resolved.name : query}.`;
     this.apply();
     return true;
@@ -232,7 +232,7 @@ function defaultState(kit) {
   const site = demoSite();
   const today = utcToZoned(Date.now(), site.tz).date;
   return { kit, site, utc_ms: zonedToUtcMs(today, '21:00', site.tz), stationId: kit.stations[0]?.id || null, eyepieceIndex: 0,
-    target: 'M 45', view: { north_up: false, compare: false, night: false, labels: true } };
+    target: { by: 'name', name: 'M 45' }, view: { north_up: false, compare: false, night: false, labels: true } };
 }
 
 function restoreSession(state) {
@@ -242,7 +242,7 @@ function restoreSession(state) {
   const site = s.site && typeof s.site.lat_deg === 'number' && isValidZone(s.site.tz) ? s.site : state.site;
   return { ...state, site, utc_ms: Number.isFinite(s.utc_ms) ? s.utc_ms : state.utc_ms,
     stationId: state.kit.stations.some((x) => x.id === s.stationId) ? s.stationId : state.stationId,
-    eyepieceIndex: s.eyepieceIndex | 0, target: typeof s.target === 'string' ? s.target : state.target,
+    eyepieceIndex: s.eyepieceIndex | 0, target: s.target ? targetSpec(s.target) : state.target,
     view: { ...state.view, ...(s.view || {}) } };
 }
 
