@@ -126,3 +126,16 @@ fn bad_time_fields_are_typed_errors() {
     let msg = TimeError::Year(2200).to_string();
     assert!(msg.contains("year") && msg.contains("1900") && msg.contains("2100"), "{msg}");
 }
+
+proptest::proptest! {
+    // Any numbers a form or a link can carry: a value or a typed error, never a panic.
+    #[test]
+    fn any_time_input_is_value_or_error(y in -5000i32..5000, mo in 0u32..20, d in 0u32..40, h in 0u32..30,
+                                        mi in 0u32..70, s in proptest::num::f64::ANY, off in -3000i32..3000,
+                                        jd in proptest::num::f64::ANY, dut1 in proptest::num::f64::ANY) {
+        if let Ok(t) = Instant::from_civil(y, mo, d, h, mi, s, off) {
+            proptest::prop_assert!(t.tt_jd.is_finite() && gast_rad(&t).is_finite());
+        }
+        let _ = Instant::from_utc_jd_dut1(jd, dut1);
+    }
+}

@@ -34,6 +34,22 @@ pub struct CatalogPlace {
     pub rv_km_s: f64,
 }
 
+impl From<&crate::sky::catalog::Star> for CatalogPlace {
+    /// A catalog-file star (no radial velocity carried: 0). Gaia-tier stars carry no
+    /// proper motion or parallax, so their place is the J2016 one: typical G < 10 proper
+    /// motions of 10–50 mas/yr leave ~0.1–0.7″ by 2030 (the bar that allows).
+    fn from(s: &crate::sky::catalog::Star) -> Self {
+        CatalogPlace {
+            ra_rad: s.ra_rad,
+            dec_rad: s.dec_rad,
+            pm_ra_cosdec_mas_yr: s.pm_ra_cosdec_mas_yr as f64,
+            pm_dec_mas_yr: s.pm_dec_mas_yr as f64,
+            parallax_mas: s.parallax_mas as f64,
+            rv_km_s: 0.0,
+        }
+    }
+}
+
 /// Julian epoch (e.g. 1991.25) → TT Julian date.
 pub fn jyear_to_jd(epoch_jyear: f64) -> f64 {
     crate::time::J2000_JD + (epoch_jyear - 2000.0) * JULIAN_YEAR_DAYS

@@ -10,7 +10,9 @@ pub mod apparent;
 pub mod geometry;
 pub mod jupiter;
 pub mod jupiter_events;
+pub mod moon;
 pub mod physical;
+pub mod saturn;
 pub mod state;
 pub mod topocentric;
 
