@@ -136,6 +136,13 @@ pub fn validate(train: &Train) -> Result<(), OpticsError> {
             let instrument = if prime { "a prime-focus camera" } else { instrument_name };
             return Err(OpticsError::NotAllowed { index: i, accessory: label, instrument });
         }
+        if matches!(acc, Accessory::Filter(fl) if fl.filter == FilterKind::Solar) && i != 0 {
+            return Err(OpticsError::WrongPlace {
+                index: i,
+                accessory: "solar filter",
+                rule: "a solar filter must cover the front of the instrument, so it comes first",
+            });
+        }
         if seen_eyepiece && !matches!(acc, Accessory::Phone(_)) {
             return Err(OpticsError::WrongPlace { index: i, accessory: label, rule: "only a phone can follow the eyepiece" });
         }
@@ -155,13 +162,6 @@ pub fn validate(train: &Train) -> Result<(), OpticsError> {
             }
             Accessory::Filter(fl) => {
                 check(&p("transmission"), fl.transmission, 1e-7, 1.0, "")?;
-                if fl.filter == FilterKind::Solar && i != 0 {
-                    return Err(OpticsError::WrongPlace {
-                        index: i,
-                        accessory: "solar filter",
-                        rule: "a solar filter must cover the front of the instrument, so it comes first",
-                    });
-                }
             }
             Accessory::Eyepiece(e) => {
                 counts[1] += 1;

@@ -1,8 +1,10 @@
 //! Atmospheric refraction and air mass.
 //! - True → apparent: Saemundsson (1986, Sky & Telescope 72, 70).
 //! - Apparent → true: Bennett (1982, Journal of Navigation 35, 255).
+//!
 //! Both in arcminutes with the standard pressure/temperature factor
 //! (P / 1010 hPa)·(283 K / (273 K + T)) (Meeus, Astronomical Algorithms, ch. 16).
+//!
 //! - Air mass: Kasten & Young (1989, Applied Optics 28, 4735).
 
 /// Standard pressure of the refraction formulas, hPa.
@@ -52,6 +54,11 @@ pub fn refraction_from_apparent_rad(apparent_alt_rad: f64, pressure_hpa: f64, te
 /// True altitude → apparent altitude (Saemundsson refraction added).
 pub fn apparent_altitude_rad(true_alt_rad: f64, pressure_hpa: f64, temp_c: f64) -> f64 {
     true_alt_rad + refraction_rad(true_alt_rad, pressure_hpa, temp_c)
+}
+
+/// Geometric alt/az → as seen through the air (Saemundsson refraction on the altitude).
+pub fn refracted(h: crate::sky::Horizontal, pressure_hpa: f64, temp_c: f64) -> crate::sky::Horizontal {
+    crate::sky::Horizontal { alt_rad: apparent_altitude_rad(h.alt_rad, pressure_hpa, temp_c), az_rad: h.az_rad }
 }
 
 /// Air mass at an apparent altitude: Kasten & Young (1989),

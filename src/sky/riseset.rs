@@ -250,11 +250,18 @@ pub struct Twilight {
 }
 
 /// Sunset/sunrise (−50′) and civil, nautical, astronomical twilight (Sun's centre at
-/// −6°, −12°, −18°) for the 24 h starting at `start_utc_jd` (pass local noon).
+/// −6°, −12°, −18°) for the 24 h starting at `start_utc_jd` (pass local noon), with the
+/// Astronomical Almanac low-precision Sun.
 pub fn twilight(site: &Site, start_utc_jd: f64) -> Result<Twilight, RiseSetError> {
     validate_site(site).map_err(RiseSetError::Site)?;
+    twilight_with(|t| sun_altitude_rad(site, t), start_utc_jd)
+}
+
+/// As [`twilight`], with any Sun: `sun_alt_at(utc_jd)` gives the geometric altitude of
+/// the Sun's centre (e.g. from the solar module's ephemeris).
+pub fn twilight_with(sun_alt_at: impl Fn(f64) -> f64, start_utc_jd: f64) -> Result<Twilight, RiseSetError> {
     let end = start_utc_jd + 1.0;
-    let alt = |t: f64| sun_altitude_rad(site, t);
+    let alt = &sun_alt_at;
     let pair = |h_deg: f64| -> Result<(Option<f64>, Option<f64>, f64), RiseSetError> {
         let r = rise_transit_set(alt, start_utc_jd, end, h_deg.to_radians())?;
         let dusk = r.set_utc_jd;
