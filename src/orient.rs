@@ -312,3 +312,25 @@ pub fn describe(view: &SkyToScreen, parallactic_rad: f64) -> Description {
     );
     Description { mirrored, rotation_deg: rot, marks, text }
 }
+
+/// Everything the page and the view need about the orientation, as plain data.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct OrientationReport {
+    /// Column-major `[right·east, up·east, right·north, up·north]`:
+    /// screen (right, up) = m · (east, north).
+    pub m: [f64; 4],
+    /// Reflections in the light path (odd: mirror image).
+    pub reflections: u32,
+    pub description: Description,
+}
+
+/// Orientation of `train` now: transform, reflection count, words and marks.
+pub fn report(train: &Train, state: &MountState) -> Result<OrientationReport, OpticsError> {
+    let g = geometry(train, state)?;
+    let t = g.transform();
+    Ok(OrientationReport {
+        m: t.m.to_cols_array(),
+        reflections: g.path.reflections(),
+        description: describe(&t, state.parallactic_rad),
+    })
+}

@@ -207,3 +207,14 @@ fn presets_are_valid_and_round_trip_as_snake_case_json() {
     let t: Train = serde_json::from_str(json).unwrap();
     assert!((figures(&t).unwrap().magnification.unwrap() - 48.0).abs() < 1e-12);
 }
+
+#[test]
+fn apparent_field_for_the_field_circle() {
+    // Field stop known: the stated apparent field; barrel-limited: true field × magnification.
+    let f = figures(&telescope(Design::Refractor, 80.0, 600.0, vec![ep(25.0, 52.0, None)])).unwrap();
+    assert!((f.apparent_field_rad.unwrap().to_degrees() - 52.0).abs() < 1e-12);
+    let g = figures(&telescope(Design::Newtonian { focuser_angle_deg: 0.0 }, 200.0, 1200.0, vec![ep(40.0, 68.0, None)])).unwrap();
+    assert!((g.apparent_field_rad.unwrap() - g.true_field_rad * 30.0).abs() < 1e-12);
+    let c = figures(&telescope(Design::Refractor, 80.0, 600.0, vec![cam(4.0, 1000, 1000)])).unwrap();
+    assert!(c.apparent_field_rad.is_none());
+}

@@ -294,3 +294,18 @@ fn parallactic_angle_is_the_zenith_position_angle() {
         assert!((pa - q).abs() < 1e-12, "{pa} {q}");
     }
 }
+
+#[test]
+fn report_carries_transform_words_and_marks() {
+    let t = tel(Design::Refractor, vec![diag(DiagonalKind::Mirror90, 0.0), ep()], Mount::AltAz);
+    let st = st0();
+    let r = report(&t, &st).unwrap();
+    assert_eq!(r.reflections, 1);
+    assert_eq!(r.m, orientation(&t, &st).unwrap().m.to_cols_array());
+    assert!(r.description.mirrored && r.description.text.contains("zenith at top"));
+    // Mirror diagonal pointing up, q = 0: zenith and north up, east to the right.
+    let mk = r.description.marks;
+    assert!((mk.zenith[1] - 1.0).abs() < 1e-9 && (mk.north[1] - 1.0).abs() < 1e-9 && (mk.east[0] - 1.0).abs() < 1e-9);
+    let json = serde_json::to_string(&r).unwrap();
+    assert!(json.contains("\"text\""));
+}

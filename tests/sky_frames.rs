@@ -139,3 +139,25 @@ fn gcrs_to_apparent_agrees_with_star_chain() {
     let (ra, de) = ra_dec_of(gcrs_to_apparent(unit_vector(1.0, 0.3), t.tt_jd));
     assert!(sep_arcsec(a.ra_rad, a.dec_rad, ra, de) < 1e-6);
 }
+
+#[test]
+#[ignore]
+fn bench_apparent_place_per_star() {
+    // Prints per-star cost of the one-shot chain and of the cached context (ratio in one run).
+    // Run: cargo test --release --test sky_frames bench_ -- --ignored --nocapture
+    let t = Instant::from_civil(2024, 3, 15, 20, 30, 0.0, 0).unwrap();
+    let stars: Vec<CatalogPlace> = (0..20_000).map(|i| {
+        let x = i as f64;
+        CatalogPlace { ra_rad: (x * 0.618).rem_euclid(6.283), dec_rad: ((x * 0.377).rem_euclid(3.0)) - 1.5,
+            pm_ra_cosdec_mas_yr: 10.0, pm_dec_mas_yr: -5.0, parallax_mas: 2.0, rv_km_s: 0.0 }
+    }).collect();
+    let t0 = std::time::Instant::now();
+    let mut acc = 0.0;
+    for p in &stars[..2000] { acc += star_apparent(p, 1991.25, &t).ra_rad; }
+    let one = t0.elapsed().as_secs_f64() / 2000.0;
+    let t1 = std::time::Instant::now();
+    let ctx = ApparentContext::geocentric(&t);
+    for p in &stars { acc += ctx.place(p, 1991.25).ra_rad; }
+    let cached = t1.elapsed().as_secs_f64() / stars.len() as f64;
+    println!("per star: one-shot {:.2} µs, cached context {:.3} µs, ratio {:.0}× (checksum {acc:.3})", one * 1e6, cached * 1e6, one / cached);
+}

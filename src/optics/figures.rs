@@ -101,6 +101,9 @@ pub struct Figures {
     /// Full width of the field on the sky (camera: the sensor diagonal).
     pub true_field_rad: f64,
     pub true_field_method: TrueFieldMethod,
+    /// Angular diameter of the field as the eye sees it (the field circle to
+    /// draw); the true field × magnification when the barrel limits it. None for a camera.
+    pub apparent_field_rad: Option<f64>,
     pub exit_pupil_mm: Option<f64>,
     /// Arcseconds of sky per mm of focal plane (camera or phone sensor).
     pub plate_scale_arcsec_per_mm: Option<f64>,
@@ -259,6 +262,7 @@ pub fn figures_for(train: &Train, cond: &Conditions) -> Result<Figures, OpticsEr
         magnification: Some(1.0),
         true_field_rad: 0.0,
         true_field_method: TrueFieldMethod::NakedEye,
+        apparent_field_rad: None,
         exit_pupil_mm: None,
         plate_scale_arcsec_per_mm: None,
         pixel_scale_arcsec: None,
@@ -359,6 +363,17 @@ pub fn figures_for(train: &Train, cond: &Conditions) -> Result<Figures, OpticsEr
         }
     }
     f.modifier_factors = modifier_factors;
+    if let Some(m) = f.magnification {
+        let stated = match &train.instrument {
+            Instrument::Binoculars(b) => b.apparent_field_deg,
+            _ => train.eyepiece().map(|e| e.apparent_field_deg),
+        };
+        f.apparent_field_rad = Some(match (f.true_field_method, stated) {
+            // The barrel's stop is what the eye sees round the field.
+            (TrueFieldMethod::BarrelLimit, _) | (_, None) => (f.true_field_rad * m).min(std::f64::consts::PI),
+            (_, Some(a)) => a.to_radians(),
+        });
+    }
     let aperture = f.aperture_mm;
     f.dawes_arcsec = dawes_arcsec(aperture);
     f.rayleigh_arcsec = rayleigh_arcsec(aperture);

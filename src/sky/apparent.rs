@@ -4,7 +4,7 @@
 //! IAU 2006/2000B NPB matrix → right ascension and declination of the true
 //! equator and equinox of date. Same chain as ERFA's `eraAtciq` but equinox-based.
 
-use glam::DVec3;
+use glam::{DMat3, DVec3};
 
 use crate::sky::earth_ephem::{earth_state, EarthState};
 use crate::sky::frames::{npb_matrix, ra_dec_of, unit_vector, ARCSEC_RAD};
@@ -107,6 +107,10 @@ pub fn apparent_direction(
     extra_vel_au_day: DVec3,
     tt_jd: f64,
 ) -> DVec3 {
+    apparent_with(astrometric, source_from_sun, earth, extra_vel_au_day, &npb_matrix(tt_jd))
+}
+
+fn apparent_with(astrometric: DVec3, source_from_sun: Option<DVec3>, earth: &EarthState, extra_vel_au_day: DVec3, npb: &DMat3) -> DVec3 {
     let p = astrometric.normalize();
     let em = earth.helio_pos_au.length();
     let e = earth.helio_pos_au / em;
@@ -114,7 +118,7 @@ pub fn apparent_direction(
     let q = source_from_sun.unwrap_or(p);
     let deflected = deflect_by_sun(p, q, e, em, dlim).normalize();
     let aberrated = aberrate(deflected, earth.bary_vel_au_day + extra_vel_au_day, em);
-    npb_matrix(tt_jd) * aberrated
+    *npb * aberrated
 }
 
 /// A GCRS astrometric direction of a distant source → apparent direction of date
@@ -123,27 +127,59 @@ pub fn gcrs_to_apparent(dir_gcrs: DVec3, tt_jd: f64) -> DVec3 {
     apparent_direction(dir_gcrs, None, &earth_state(tt_jd), DVec3::ZERO, tt_jd)
 }
 
+/// Everything the apparent-place chain needs at one instant (and optionally one site),
+/// computed once: use it to place many stars (a field of thousands) cheaply.
+#[derive(Clone, Copy, Debug)]
+pub struct ApparentContext {
+    pub tt_jd: f64,
+    /// Observer's state: Earth's, shifted by the site's geocentric offset when at a site.
+    pub observer: EarthState,
+    /// Observer's diurnal velocity, GCRS axes, AU/day (zero when geocentric).
+    pub diurnal_vel_au_day: DVec3,
+    /// GCRS → true equator and equinox of date.
+    pub npb: DMat3,
+}
+
+impl ApparentContext {
+    /// Geocentric observer.
+    pub fn geocentric(t: &Instant) -> Self {
+        ApparentContext { tt_jd: t.tt_jd, observer: earth_state(t.tt_jd), diurnal_vel_au_day: DVec3::ZERO, npb: npb_matrix(t.tt_jd) }
+    }
+
+    /// Observer at a site: adds the geocentric offset (parallax) and diurnal aberration
+    /// (≤ 0.32″), as ERFA `eraAtco13` does before refraction.
+    pub fn at_site(t: &Instant, site: &Site) -> Self {
+        let npb = npb_matrix(t.tt_jd);
+        let to_gcrs = npb.transpose();
+        let obs_pos_au = to_gcrs * crate::sky::horizon::observer_position_of_date_m(site, t) / AU_M;
+        let diurnal = to_gcrs * observer_velocity_of_date_m_s(site, t) * 86_400.0 / AU_M;
+        let mut observer = earth_state(t.tt_jd);
+        observer.helio_pos_au += obs_pos_au;
+        observer.bary_pos_au += obs_pos_au;
+        ApparentContext { tt_jd: t.tt_jd, observer, diurnal_vel_au_day: diurnal, npb }
+    }
+
+    /// Apparent place (true equator and equinox of date) of a catalog star.
+    pub fn place(&self, p: &CatalogPlace, epoch_jyear: f64) -> Equatorial {
+        let dir = astrometric_direction(p, epoch_jyear, self.tt_jd, self.observer.bary_pos_au);
+        let (ra_rad, dec_rad) = ra_dec_of(self.direction(dir));
+        Equatorial { ra_rad, dec_rad }
+    }
+
+    /// Apparent direction of date of a distant source's astrometric (GCRS-axes) direction.
+    pub fn direction(&self, astrometric: DVec3) -> DVec3 {
+        apparent_with(astrometric, None, &self.observer, self.diurnal_vel_au_day, &self.npb)
+    }
+}
+
 /// Geocentric apparent place of a catalog star (true equator and equinox of date).
 pub fn star_apparent(place: &CatalogPlace, epoch_jyear: f64, t: &Instant) -> Equatorial {
-    let earth = earth_state(t.tt_jd);
-    let p = astrometric_direction(place, epoch_jyear, t.tt_jd, earth.bary_pos_au);
-    let (ra_rad, dec_rad) = ra_dec_of(apparent_direction(p, None, &earth, DVec3::ZERO, t.tt_jd));
-    Equatorial { ra_rad, dec_rad }
+    ApparentContext::geocentric(t).place(place, epoch_jyear)
 }
 
 /// Topocentric apparent place of a catalog star at a site (adds the observer's
 /// geocentric offset to the parallax and diurnal aberration, ≤ 0.32″; as ERFA
 /// `eraAtco13` does before refraction).
 pub fn star_apparent_at_site(place: &CatalogPlace, epoch_jyear: f64, t: &Instant, site: &Site) -> Equatorial {
-    let earth = earth_state(t.tt_jd);
-    let npb = npb_matrix(t.tt_jd);
-    let to_gcrs = npb.transpose();
-    let obs_pos_au = to_gcrs * crate::sky::horizon::observer_position_of_date_m(site, t) / AU_M;
-    let obs_vel_au_day = to_gcrs * observer_velocity_of_date_m_s(site, t) * 86_400.0 / AU_M;
-    let mut here = earth;
-    here.helio_pos_au += obs_pos_au;
-    here.bary_pos_au += obs_pos_au;
-    let p = astrometric_direction(place, epoch_jyear, t.tt_jd, here.bary_pos_au);
-    let (ra_rad, dec_rad) = ra_dec_of(apparent_direction(p, None, &here, obs_vel_au_day, t.tt_jd));
-    Equatorial { ra_rad, dec_rad }
+    ApparentContext::at_site(t, site).place(place, epoch_jyear)
 }

@@ -143,3 +143,34 @@ pub fn observer_velocity_of_date_m_s(site: &Site, t: &Instant) -> DVec3 {
     let p = observer_position_of_date_m(site, t);
     DVec3::new(-EARTH_ROTATION_RAD_S * p.y, EARTH_ROTATION_RAD_S * p.x, 0.0)
 }
+
+/// Local apparent sidereal time and latitude at one instant, computed once, for
+/// turning many apparent places into alt/az (same results as [`to_horizontal`]).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct HorizonFrame {
+    pub last_rad: f64,
+    pub lat_rad: f64,
+}
+
+impl HorizonFrame {
+    pub fn new(site: &Site, t: &Instant) -> Self {
+        HorizonFrame { last_rad: wrap_2pi(gast_rad(t) + site.lon_rad), lat_rad: site.lat_rad }
+    }
+
+    /// Hour angle (west-positive, (−π, π]) of an apparent right ascension.
+    pub fn hour_angle_rad(&self, ra_rad: f64) -> f64 {
+        let h = wrap_2pi(self.last_rad - ra_rad);
+        if h > std::f64::consts::PI { h - std::f64::consts::TAU } else { h }
+    }
+
+    /// Apparent place → geometric alt/az (no refraction).
+    pub fn to_horizontal(&self, app: Equatorial) -> Horizontal {
+        hd_to_horizontal(self.hour_angle_rad(app.ra_rad), app.dec_rad, self.lat_rad)
+    }
+
+    /// Alt/az → apparent place.
+    pub fn from_horizontal(&self, h: Horizontal) -> Equatorial {
+        let (ha, dec) = horizontal_to_hd(h, self.lat_rad);
+        Equatorial { ra_rad: wrap_2pi(self.last_rad - ha), dec_rad: dec }
+    }
+}

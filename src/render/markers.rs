@@ -1,0 +1,201 @@
+//! The field edge (the dark outside the field stop or sensor, and its rim)
+//! and the markers: north and east, the zenith, and the drift direction with
+//! the time the target takes to leave an undriven field.
+
+use super::raster::Canvas;
+use super::{background, Label, Palette, ViewTransform};
+use crate::scene::{FieldEdge, LabelKind, Scene};
+use glam::DVec2;
+
+const RIM: [f32; 3] = [0.30, 0.33, 0.40];
+const NORTH: [f32; 3] = [0.95, 0.40, 0.30];
+const EAST: [f32; 3] = [0.35, 0.75, 0.95];
+const ZENITH: [f32; 3] = [0.55, 0.90, 0.45];
+const DRIFT: [f32; 3] = [0.95, 0.80, 0.35];
+
+/// Darkens everything outside the field and draws its rim, anti-aliased.
+/// Row spans: pixels far from the edge are filled or skipped whole; only a
+/// band about the edge is shaded per pixel.
+pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, rows: (usize, usize)) {
+    let out = pal.map(background::OUTSIDE);
+    let rim = pal.map(RIM);
+    let out8 = super::raster::to_rgba8(out);
+    let half_w = 0.75 * dpr;
+    let band = half_w + 1.5;
+    match &scene.field {
+        FieldEdge::Circle { radius_rad } => {
+            let r = (radius_rad * t.px_per_rad) as f32;
+            let (cx, cy) = (t.cx as f32, t.cy as f32);
+            let (ro, ri) = (r + band, (r - band).max(0.0));
+            for y in rows.0..rows.1.min(cv.h) {
+                let dy = y as f32 + 0.5 - cy;
+                if dy.abs() >= ro {
+                    cv.fill_span(y, 0, cv.w, out8);
+                    continue;
+                }
+                let ho = libm::sqrtf(ro * ro - dy * dy);
+                let xl = span_start(cx - ho);
+                let xr = span_end(cx + ho, cv.w);
+                cv.fill_span(y, 0, xl, out8);
+                cv.fill_span(y, xr, cv.w, out8);
+                let (il, ir) = if dy.abs() < ri {
+                    let hi = libm::sqrtf(ri * ri - dy * dy);
+                    (span_end(cx - hi, cv.w).max(xl), span_start(cx + hi).min(xr))
+                } else {
+                    (xr, xr)
+                };
+                let shade = |cv: &mut Canvas, x: usize| {
+                    let dx = x as f32 + 0.5 - cx;
+                    let d = libm::sqrtf(dx * dx + dy * dy) - r;
+                    edge_pixel(cv, x, y, d, half_w, out, rim);
+                };
+                for x in xl..il.min(xr) {
+                    shade(cv, x);
+                }
+                for x in ir.max(il)..xr {
+                    shade(cv, x);
+                }
+            }
+        }
+        FieldEdge::Polygon { corners } => {
+            let pts: Vec<(f32, f32)> = corners.iter().map(|c| t.to_px(*c)).collect();
+            let poly: Vec<DVec2> = pts.iter().map(|p| DVec2::new(p.0 as f64, p.1 as f64)).collect();
+            for y in rows.0..rows.1.min(cv.h) {
+                let yc = y as f32 + 0.5;
+                // Inside span of this row, and the x-ranges within `band` of an edge.
+                let (inside, near) = polygon_row(&pts, yc, band);
+                let mut x = 0usize;
+                while x < cv.w {
+                    let xc = x as f32 + 0.5;
+                    let is_near = near.iter().any(|&(a, b)| xc >= a && xc <= b);
+                    if is_near {
+                        let d = crate::scene::polygon_signed_distance(&poly, DVec2::new(xc as f64, yc as f64)) as f32;
+                        edge_pixel(cv, x, y, d, half_w, out, rim);
+                        x += 1;
+                        continue;
+                    }
+                    // Run to the next near range or the end, filling if outside.
+                    let next = near.iter().filter(|&&(a, _)| a > xc).map(|&(a, _)| span_start(a)).min().unwrap_or(cv.w).max(x + 1);
+                    let in_row = inside.is_some_and(|(a, b)| xc >= a && xc <= b);
+                    if !in_row {
+                        cv.fill_span(y, x, next, out8);
+                    }
+                    x = next;
+                }
+            }
+        }
+    }
+}
+
+#[inline]
+fn span_start(x: f32) -> usize {
+    (x - 0.5).ceil().max(0.0) as usize
+}
+
+#[inline]
+fn span_end(x: f32, w: usize) -> usize {
+    (((x - 0.5).floor() + 1.0).max(0.0) as usize).min(w)
+}
+
+#[inline]
+fn edge_pixel(cv: &mut Canvas, x: usize, y: usize, d: f32, half_w: f32, out: [f32; 3], rim: [f32; 3]) {
+    let i = cv.idx(x, y);
+    cv.blend(i, out, (d + 0.5).clamp(0.0, 1.0));
+    cv.blend(i, rim, (half_w + 0.5 - d.abs()).clamp(0.0, 1.0));
+}
+
+/// For a convex polygon (pixel coords): the inside x-span on row `yc` and the
+/// x-ranges within `band` of each edge.
+fn polygon_row(pts: &[(f32, f32)], yc: f32, band: f32) -> (Option<(f32, f32)>, Vec<(f32, f32)>) {
+    let n = pts.len();
+    let mut lo = f32::INFINITY;
+    let mut hi = f32::NEG_INFINITY;
+    let mut near = Vec::with_capacity(n);
+    for i in 0..n {
+        let a = pts[i];
+        let b = pts[(i + 1) % n];
+        if (a.1 - yc) * (b.1 - yc) <= 0.0 && a.1 != b.1 {
+            let x = a.0 + (yc - a.1) / (b.1 - a.1) * (b.0 - a.0);
+            lo = lo.min(x);
+            hi = hi.max(x);
+        }
+        // x-extent of the segment between rows yc ± band, grown by band.
+        let (y0, y1) = (yc - band, yc + band);
+        let (ta, tb) = if (b.1 - a.1).abs() < 1e-6 {
+            if a.1 >= y0 && a.1 <= y1 { (0.0, 1.0) } else { continue }
+        } else {
+            let t0 = (y0 - a.1) / (b.1 - a.1);
+            let t1 = (y1 - a.1) / (b.1 - a.1);
+            let (t0, t1) = (t0.min(t1).max(0.0), t0.max(t1).min(1.0));
+            if t0 > t1 { continue } else { (t0, t1) }
+        };
+        let xa = a.0 + ta * (b.0 - a.0);
+        let xb = a.0 + tb * (b.0 - a.0);
+        near.push((xa.min(xb) - band, xa.max(xb) + band));
+    }
+    (if lo <= hi { Some((lo, hi)) } else { None }, near)
+}
+
+/// Human wording of a duration: "45 s", "3 min 20 s", "1 h 05 min".
+pub fn format_duration(s: f64) -> String {
+    if !s.is_finite() {
+        return "never".to_string();
+    }
+    let s = s.max(0.0).round() as u64;
+    if s < 60 {
+        format!("{s} s")
+    } else if s < 3600 {
+        format!("{} min {:02} s", s / 60, s % 60)
+    } else {
+        format!("{} h {:02} min", s / 3600, (s % 3600) / 60)
+    }
+}
+
+/// Draws the compass (north, east), the zenith and drift ticks at the field
+/// edge, and returns their labels.
+pub(crate) fn draw_markers(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette) -> Vec<Label> {
+    let mut labels = Vec::new();
+    let w = 1.5 * dpr;
+    let len = 30.0 * dpr;
+    // Compass in the lower-left corner: arrows along north and east.
+    let o = (14.0 * dpr + len, cv.h as f32 - 14.0 * dpr - len);
+    for (dir, col, text, kind, l) in [
+        (DVec2::new(0.0, 1.0), NORTH, "N", LabelKind::North, len),
+        (DVec2::new(1.0, 0.0), EAST, "E", LabelKind::East, len * 0.7),
+    ] {
+        let d = t.dir_px(dir);
+        let tip = (o.0 + d.0 * l, o.1 + d.1 * l);
+        let c = pal.map(col);
+        cv.line(o, tip, w, c, 1.0);
+        cv.arrow_head(tip, d, 7.0 * dpr, w, c);
+        labels.push(Label { text: text.into(), x_px: tip.0 + d.0 * 8.0 * dpr, y_px: tip.1 + d.1 * 8.0 * dpr, kind });
+    }
+    let reach = |dir: DVec2| scene.exit_distance_rad(dir);
+    if let Some(z) = scene.markers.zenith_dir {
+        let d = t.dir_px(z);
+        let e = t.to_px(z.normalize_or_zero() * reach(z.normalize_or_zero()));
+        let c = pal.map(ZENITH);
+        // A tick just outside the edge pointing outwards.
+        let a = (e.0 + d.0 * 3.0 * dpr, e.1 + d.1 * 3.0 * dpr);
+        let b = (e.0 + d.0 * 16.0 * dpr, e.1 + d.1 * 16.0 * dpr);
+        cv.line(a, b, w, c, 1.0);
+        cv.arrow_head(b, d, 6.0 * dpr, w, c);
+        labels.push(Label { text: "zenith".into(), x_px: b.0 + d.0 * 10.0 * dpr, y_px: b.1 + d.1 * 10.0 * dpr, kind: LabelKind::Zenith });
+    }
+    if let Some(dr) = scene.markers.drift {
+        let d = t.dir_px(dr.dir);
+        let e = t.to_px(dr.dir.normalize_or_zero() * reach(dr.dir.normalize_or_zero()));
+        let c = pal.map(DRIFT);
+        let a = (e.0 - d.0 * 18.0 * dpr, e.1 - d.1 * 18.0 * dpr);
+        let b = (e.0 - d.0 * 3.0 * dpr, e.1 - d.1 * 3.0 * dpr);
+        cv.line(a, b, w, c, 1.0);
+        cv.arrow_head(b, d, 6.0 * dpr, w, c);
+        labels.push(Label {
+            text: format!("leaves field in {}", format_duration(dr.time_to_exit_s)),
+            x_px: e.0 + d.0 * 10.0 * dpr,
+            y_px: e.1 + d.1 * 10.0 * dpr,
+            kind: LabelKind::Drift,
+        });
+    }
+    labels
+}

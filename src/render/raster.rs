@@ -1,0 +1,194 @@
+//! Pixel primitives on an RGBA8 sRGB buffer. Light is added and blended in
+//! linear light through lookup tables (sRGB transfer function, IEC 61966-2-1),
+//! touching only the pixels a primitive covers.
+
+use std::sync::OnceLock;
+
+const L2S_N: usize = 4096;
+
+pub(crate) struct Luts {
+    pub s2l: [f32; 256],
+    pub l2s: [u8; L2S_N],
+}
+
+/// sRGB decode (IEC 61966-2-1).
+pub fn srgb_to_linear(c: f32) -> f32 {
+    if c <= 0.04045 {
+        c / 12.92
+    } else {
+        libm::powf((c + 0.055) / 1.055, 2.4)
+    }
+}
+
+/// sRGB encode (IEC 61966-2-1).
+pub fn linear_to_srgb(l: f32) -> f32 {
+    if l <= 0.003_130_8 {
+        l * 12.92
+    } else {
+        1.055 * libm::powf(l, 1.0 / 2.4) - 0.055
+    }
+}
+
+pub(crate) fn luts() -> &'static Luts {
+    static L: OnceLock<Luts> = OnceLock::new();
+    L.get_or_init(|| {
+        let mut s2l = [0.0f32; 256];
+        for (i, v) in s2l.iter_mut().enumerate() {
+            *v = srgb_to_linear(i as f32 / 255.0);
+        }
+        let mut l2s = [0u8; L2S_N];
+        for (i, v) in l2s.iter_mut().enumerate() {
+            let l = i as f32 / (L2S_N - 1) as f32;
+            *v = (linear_to_srgb(l) * 255.0 + 0.5).clamp(0.0, 255.0) as u8;
+        }
+        Luts { s2l, l2s }
+    })
+}
+
+#[inline(always)]
+pub(crate) fn enc(l2s: &[u8; L2S_N], lin: f32) -> u8 {
+    // Round to an index by the 2^23 trick (adding 2^23 leaves the rounded
+    // integer in the low mantissa bits): no saturating float→int checks.
+    // lin in [0, 1] keeps it ≤ 4095; the mask lets the bounds check go.
+    let v = lin.clamp(0.0, 1.0) * (L2S_N - 1) as f32 + 8_388_608.0;
+    l2s[(v.to_bits() & (L2S_N as u32 - 1)) as usize]
+}
+
+/// Adds linear light `c · k` to one RGBA pixel.
+#[inline(always)]
+pub(crate) fn add_px(p: &mut [u8], s2l: &[f32; 256], l2s: &[u8; L2S_N], c: [f32; 3], k: f32) {
+    p[0] = enc(l2s, s2l[p[0] as usize] + c[0] * k);
+    p[1] = enc(l2s, s2l[p[1] as usize] + c[1] * k);
+    p[2] = enc(l2s, s2l[p[2] as usize] + c[2] * k);
+}
+
+/// Linear RGB colour → RGBA8 (opaque).
+pub fn to_rgba8(c: [f32; 3]) -> [u8; 4] {
+    let l = &luts().l2s;
+    [enc(l, c[0]), enc(l, c[1]), enc(l, c[2]), 255]
+}
+
+/// A mutable view of the frame's pixels.
+pub(crate) struct Canvas<'a> {
+    pub w: usize,
+    pub h: usize,
+    pub px: &'a mut [u8],
+    pub luts: &'static Luts,
+}
+
+impl<'a> Canvas<'a> {
+    pub fn new(w: usize, h: usize, px: &'a mut [u8]) -> Self {
+        Canvas { w, h, px, luts: luts() }
+    }
+
+    /// Fills the whole buffer with one colour.
+    pub fn fill(&mut self, rgba: [u8; 4]) {
+        fill_rgba(self.px, rgba);
+    }
+
+    /// Fills rows [first, end).
+    pub fn fill_rows(&mut self, rows: (usize, usize), rgba: [u8; 4]) {
+        let (a, b) = (rows.0.min(self.h), rows.1.min(self.h));
+        fill_rgba(&mut self.px[a * self.w * 4..b * self.w * 4], rgba);
+    }
+
+    /// Fills pixels [x0, x1) of row y.
+    #[inline]
+    pub fn fill_span(&mut self, y: usize, x0: usize, x1: usize, rgba: [u8; 4]) {
+        let x1 = x1.min(self.w);
+        if x0 >= x1 || y >= self.h {
+            return;
+        }
+        let row = y * self.w * 4;
+        fill_rgba(&mut self.px[row + x0 * 4..row + x1 * 4], rgba);
+    }
+
+    /// Adds linear light `c * k` to pixel (x, y); no bounds check on purpose-
+    /// callers clip.
+    #[inline(always)]
+    pub fn add(&mut self, idx: usize, c: [f32; 3], k: f32) {
+        add_px(&mut self.px[idx..idx + 3], &self.luts.s2l, &self.luts.l2s, c, k);
+    }
+
+    /// Blends pixel towards linear colour `c` by coverage `a` (0..1).
+    #[inline(always)]
+    pub fn blend(&mut self, idx: usize, c: [f32; 3], a: f32) {
+        if a <= 0.0 {
+            return;
+        }
+        let s2l = &self.luts.s2l;
+        let l2s = &self.luts.l2s;
+        let p = &mut self.px[idx..idx + 3];
+        for k in 0..3 {
+            let v = s2l[p[k] as usize];
+            p[k] = enc(l2s, v + (c[k] - v) * a.min(1.0));
+        }
+    }
+
+    /// Multiplies pixel light by `f` (dark nebulae, shadows).
+    #[inline(always)]
+    pub fn scale(&mut self, idx: usize, f: f32) {
+        let s2l = &self.luts.s2l;
+        let l2s = &self.luts.l2s;
+        let p = &mut self.px[idx..idx + 3];
+        for k in 0..3 {
+            p[k] = enc(l2s, s2l[p[k] as usize] * f);
+        }
+    }
+
+    #[inline(always)]
+    pub fn idx(&self, x: usize, y: usize) -> usize {
+        (y * self.w + x) * 4
+    }
+
+    /// Anti-aliased line of width `w` px from a to b (pixel coordinates, y down).
+    pub fn line(&mut self, a: (f32, f32), b: (f32, f32), w: f32, c: [f32; 3], alpha: f32) {
+        let half = w * 0.5;
+        let x0 = (a.0.min(b.0) - half - 1.0).floor().max(0.0) as usize;
+        let y0 = (a.1.min(b.1) - half - 1.0).floor().max(0.0) as usize;
+        let x1 = ((a.0.max(b.0) + half + 1.0).ceil().max(0.0) as usize).min(self.w);
+        let y1 = ((a.1.max(b.1) + half + 1.0).ceil().max(0.0) as usize).min(self.h);
+        let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+        let len2 = (dx * dx + dy * dy).max(1e-12);
+        for y in y0..y1 {
+            let py = y as f32 + 0.5;
+            for x in x0..x1 {
+                let px = x as f32 + 0.5;
+                let t = (((px - a.0) * dx + (py - a.1) * dy) / len2).clamp(0.0, 1.0);
+                let (ex, ey) = (px - a.0 - t * dx, py - a.1 - t * dy);
+                let d = libm::sqrtf(ex * ex + ey * ey);
+                let cov = (half + 0.5 - d).clamp(0.0, 1.0);
+                if cov > 0.0 {
+                    let i = self.idx(x, y);
+                    self.blend(i, c, cov * alpha);
+                }
+            }
+        }
+    }
+
+    /// A filled triangle-ish arrow head: tip at `tip`, pointing along unit `dir`.
+    pub fn arrow_head(&mut self, tip: (f32, f32), dir: (f32, f32), size: f32, w: f32, c: [f32; 3]) {
+        let (nx, ny) = (-dir.1, dir.0);
+        let base = (tip.0 - dir.0 * size, tip.1 - dir.1 * size);
+        let l = (base.0 + nx * size * 0.5, base.1 + ny * size * 0.5);
+        let r = (base.0 - nx * size * 0.5, base.1 - ny * size * 0.5);
+        self.line(l, tip, w, c, 1.0);
+        self.line(r, tip, w, c, 1.0);
+    }
+}
+
+/// Fills an RGBA8 slice with one colour: one 256-byte block built by hand,
+/// then whole-block copies (memcpy speed).
+pub fn fill_rgba(px: &mut [u8], rgba: [u8; 4]) {
+    let mut pat = [0u8; 256];
+    for p in pat.chunks_exact_mut(4) {
+        p.copy_from_slice(&rgba);
+    }
+    let mut blocks = px.chunks_exact_mut(256);
+    for b in &mut blocks {
+        b.copy_from_slice(&pat);
+    }
+    let rest = blocks.into_remainder();
+    let n = rest.len();
+    rest.copy_from_slice(&pat[..n]);
+}

@@ -1,0 +1,5 @@
+//! Deep-sky objects (being drawn in the next step).
+use super::raster::Canvas;
+use super::{Palette, ViewTransform};
+use crate::scene::Scene;
+pub(crate) fn draw_dsos(_cv: &mut Canvas, _scene: &Scene, _t: &ViewTransform, _pal: &Palette, _rows: (usize, usize)) {}
