@@ -54,6 +54,10 @@ pub struct MountState {
     /// Extra turn of the whole picture, anticlockwise on screen (head tilt, image rotation).
     #[serde(default)]
     pub user_rotation_rad: f64,
+    /// Declination of the target: needed only for a coudé-type focus (it fixes
+    /// where the polar axis points relative to the target).
+    #[serde(default)]
+    pub dec_rad: Option<f64>,
 }
 
 /// Who reads the image at the end of the train.
@@ -92,6 +96,9 @@ fn check_state(s: &MountState) -> Result<(), OpticsError> {
     check("mount_state.parallactic_rad", s.parallactic_rad, -2.0 * tau, 2.0 * tau, " rad")?;
     check("mount_state.alt_rad", s.alt_rad, -std::f64::consts::FRAC_PI_2, std::f64::consts::FRAC_PI_2, " rad")?;
     check("mount_state.user_rotation_rad", s.user_rotation_rad, -2.0 * tau, 2.0 * tau, " rad")?;
+    if let Some(d) = s.dec_rad {
+        check("mount_state.dec_rad", d, -std::f64::consts::FRAC_PI_2, std::f64::consts::FRAC_PI_2, " rad")?;
+    }
     Ok(())
 }
 
@@ -125,7 +132,14 @@ pub fn geometry(train: &Train, state: &MountState) -> Result<Geometry, OpticsErr
         },
     };
     let tube = TubeFrame::new(target, top);
-    let path = fold::build(train, &tube);
+    let coude = matches!(&train.instrument, Instrument::Telescope(t) if t.design == Design::Coude);
+    let pole = match (coude, state.dec_rad) {
+        (false, _) => None,
+        // The elevated pole lies 90° − δ from the target toward north.
+        (true, Some(d)) => Some(libm::sin(d) * target + libm::cos(d) * sky_north),
+        (true, None) => return Err(OpticsError::MissingField { field: "mount_state.dec_rad (a coudé-type focus needs the target's declination)" }),
+    };
+    let path = fold::build_with_pole(train, &tube, pole);
     let view = -path.dir;
     let (reader, up, readout_sign, flip_rows) = if let Some(cam) = train.camera() {
         let u0 = perpendicular(tube.top, view).or_else(|| perpendicular(tube.axis, view)).unwrap_or(tube.left);

@@ -99,7 +99,7 @@ proptest! {
 
     #[test]
     fn random_trains_parity_and_words(
-        design in 0usize..7, focuser in -180.0f64..180.0, port in any::<bool>(),
+        design in 0usize..8, dec in -1.5f64..1.5, focuser in -180.0f64..180.0, port in any::<bool>(),
         diag_kind in 0usize..5, diag_rot in -180.0f64..180.0,
         end in 0usize..3, end_rot in -180.0f64..180.0, bottom_up in any::<bool>(),
         equatorial in any::<bool>(), east in any::<bool>(),
@@ -112,6 +112,7 @@ proptest! {
             3 => Design::SchmidtCassegrain,
             4 => Design::MaksutovCassegrain,
             5 => Design::Nasmyth { port: if port { Port::Left } else { Port::Right } },
+            6 => Design::Coude,
             _ => Design::PrimeFocus,
         };
         let prime = design == Design::PrimeFocus;
@@ -127,9 +128,10 @@ proptest! {
         if cam {
             acc.push(Accessory::Camera(Camera { sensor_width_mm: 10.0, sensor_height_mm: 8.0, pixel_pitch_um: 5.0, pixels_x: 2000, pixels_y: 1600, rotation_deg: end_rot, row_order: if bottom_up { RowOrder::BottomUp } else { RowOrder::TopDown } }));
         }
+        let equatorial = equatorial || design == Design::Coude;
         let mount = if equatorial { Mount::Equatorial { pier_side: if east { PierSide::East } else { PierSide::West } } } else { Mount::AltAz };
         let t = Train { name: String::new(), instrument: Instrument::Telescope(Telescope { design: design.clone(), aperture_mm: 150.0, focal_length_mm: 1200.0, obstruction_mm: 0.0, mirror_reflectivity: 0.9, glass_transmission: 0.95 }), accessories: acc, mount };
-        let st = MountState { parallactic_rad: q, alt_rad: h, user_rotation_rad: user, pier_side: None };
+        let st = MountState { parallactic_rad: q, alt_rad: h, user_rotation_rad: user, pier_side: None, dec_rad: Some(dec) };
         let m = orientation(&t, &st).unwrap();
         let mut k = reflection_count(&t);
         let expect_k = design.mirror_count() + match kinds[diag_kind] { DiagonalKind::None => 0, DiagonalKind::Mirror90 | DiagonalKind::Prism90 => 1, _ => 2 } * (!prime as u32);

@@ -292,6 +292,9 @@ fn parallactic_angle_is_the_zenith_position_angle() {
         let zen = DVec3::Z - t.z * t;
         let pa = libm::atan2(zen.dot(east), zen.dot(north));
         assert!((pa - q).abs() < 1e-12, "{pa} {q}");
+        // The sky core's routine (ERFA eraHd2pa) follows the same convention.
+        let sky_q = nightfield::sky::horizon::parallactic_angle_rad(ha, dec, lat);
+        assert!((sky_q - q).abs() < 1e-12, "{sky_q} {q}");
     }
 }
 
@@ -308,4 +311,31 @@ fn report_carries_transform_words_and_marks() {
     assert!((mk.zenith[1] - 1.0).abs() < 1e-9 && (mk.north[1] - 1.0).abs() < 1e-9 && (mk.east[0] - 1.0).abs() < 1e-9);
     let json = serde_json::to_string(&r).unwrap();
     assert!(json.contains("\"text\""));
+}
+
+#[test]
+fn coude_image_turns_with_hour_angle() {
+    // A coudé beam comes down the polar axis to a fixed observer: the whole
+    // optical assembly turns about that axis with the hour angle, so the image
+    // turns one-for-one with it (equatorial tracking keeps the sky fixed in the tube).
+    let t = tel(Design::Coude, vec![ep()], Mount::Equatorial { pier_side: PierSide::West });
+    let (lat, dec) = (0.8f64, 0.3f64);
+    let north_angle = |ha: f64| {
+        let q = nightfield::sky::horizon::parallactic_angle_rad(ha, dec, lat);
+        let h = (lat.sin() * dec.sin() + lat.cos() * dec.cos() * ha.cos()).asin();
+        let st = MountState { parallactic_rad: q, alt_rad: h, dec_rad: Some(dec), ..Default::default() };
+        let m = orientation(&t, &st).unwrap();
+        assert!(!m.is_mirrored()); // four reflections
+        let n = m.apply(DVec2::Y);
+        libm::atan2(-n.x, n.y)
+    };
+    for (a, b) in [(-1.0, -0.6), (0.1, 0.5), (1.2, 2.0)] {
+        let d = (north_angle(b) - north_angle(a) + 3.0 * std::f64::consts::PI).rem_euclid(2.0 * std::f64::consts::PI) - std::f64::consts::PI;
+        assert!((d.abs() - (b - a)).abs() < 1e-9, "{a} {b} {d}");
+    }
+    // Without the declination, or on an alt-az mount, it says what is missing.
+    let st = MountState { parallactic_rad: 0.2, alt_rad: 0.5, ..Default::default() };
+    assert!(matches!(orientation(&t, &st), Err(OpticsError::MissingField { .. })));
+    let alt = tel(Design::Coude, vec![ep()], Mount::AltAz);
+    assert!(matches!(orientation(&alt, &st), Err(OpticsError::Incompatible { .. })));
 }

@@ -63,6 +63,8 @@ fn star_rise_transit_set_match_skyfield_within_1_minute() {
                 Err(_) => f64::NAN,
             };
             let r = rise_transit_set(alt, start, start + 1.0, f(&s["horizon_deg"]).to_radians()).unwrap();
+            let r2 = star_rise_transit_set(&p, 1991.25, &site, start, start + 1.0, STAR_HORIZON_RAD).unwrap();
+            assert_eq!(r.events.len(), r2.events.len());
             let rises: Vec<f64> = r.events.iter().filter(|e| e.kind == EventKind::Rise).map(|e| e.utc_jd).collect();
             let sets: Vec<f64> = r.events.iter().filter(|e| e.kind == EventKind::Set).map(|e| e.utc_jd).collect();
             let what = format!("HIP {hip} at {}", w["site"]);

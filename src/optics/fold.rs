@@ -136,6 +136,13 @@ impl LightPath {
 
 /// The light path of a whole train in the given tube frame.
 pub fn build(train: &Train, frame: &TubeFrame) -> LightPath {
+    build_with_pole(train, frame, None)
+}
+
+/// As `build`, with the direction of the mount's polar axis (toward the
+/// elevated pole) for a coudé focus; without it the tube's top stands in
+/// (same folds and reflection count, different angle).
+pub fn build_with_pole(train: &Train, frame: &TubeFrame, pole: Option<DVec3>) -> LightPath {
     let mut p = LightPath::entering(frame);
     let a = frame.axis;
     match &train.instrument {
@@ -175,6 +182,15 @@ pub fn build(train: &Train, frame: &TubeFrame) -> LightPath {
                     Port::Right => -frame.left,
                 };
                 p.fold_to(side);
+                p.focus();
+            }
+            Design::Coude => {
+                p.mirror(a);
+                p.mirror(a);
+                // Out along the declination axis, then down the polar axis.
+                p.fold_to(frame.left);
+                let pole = pole.and_then(|q| perpendicular(q, frame.left)).unwrap_or(frame.top);
+                p.fold_to(-pole);
                 p.focus();
             }
         },

@@ -95,11 +95,14 @@ pub enum Design {
     /// A camera at the focus of the primary mirror, inside the tube.
     PrimeFocus,
     /// Cassegrain with a flat tertiary sending the beam out along the mount's
-    /// second axis (altitude axis: Nasmyth; declination axis: coudé-type).
+    /// second axis (altitude axis on an alt-az mount; declination axis on an equatorial).
     Nasmyth {
         #[serde(default)]
         port: Port,
     },
+    /// Coudé-type: Cassegrain, a flat on the declination axis, a flat on the
+    /// polar axis sending the beam down it to a fixed room (equatorial mounts only).
+    Coude,
 }
 
 impl Design {
@@ -113,6 +116,7 @@ impl Design {
             | Design::SchmidtCassegrain
             | Design::MaksutovCassegrain => 2,
             Design::Nasmyth { .. } => 3,
+            Design::Coude => 4,
         }
     }
     /// Whether a lens or full-aperture corrector is in the beam.
@@ -129,6 +133,7 @@ impl Design {
             Design::MaksutovCassegrain => "Maksutov-type Cassegrain",
             Design::PrimeFocus => "prime-focus camera",
             Design::Nasmyth { .. } => "Nasmyth-type folded telescope",
+            Design::Coude => "coudé-type folded telescope",
         }
     }
 }

@@ -21,6 +21,8 @@ pub enum OpticsError {
     NotAllowed { index: usize, accessory: &'static str, instrument: &'static str },
     /// An accessory placed where it cannot sit in the light path.
     WrongPlace { index: usize, accessory: &'static str, rule: &'static str },
+    /// Two choices that do not go together.
+    Incompatible { what: &'static str },
     /// Binoculars need a stated true field or apparent field.
     MissingField { field: &'static str },
 }
@@ -51,6 +53,7 @@ impl fmt::Display for OpticsError {
                 write!(f, "accessories[{index}]: the {accessory} is out of place: {rule}")
             }
             OpticsError::MissingField { field } => write!(f, "{field} is needed"),
+            OpticsError::Incompatible { what } => write!(f, "{what}"),
         }
     }
 }
@@ -87,6 +90,9 @@ pub fn validate(train: &Train) -> Result<(), OpticsError> {
             check("instrument.obstruction_mm", t.obstruction_mm, 0.0, 0.7 * t.aperture_mm, " mm")?;
             check("instrument.mirror_reflectivity", t.mirror_reflectivity, 0.5, 1.0, "")?;
             check("instrument.glass_transmission", t.glass_transmission, 0.5, 1.0, "")?;
+            if t.design == Design::Coude && !matches!(train.mount, Mount::Equatorial { .. }) {
+                return Err(OpticsError::Incompatible { what: "a coudé-type focus needs an equatorial mount (mount.kind = equatorial)" });
+            }
             if let Design::Newtonian { focuser_angle_deg } = t.design {
                 check("instrument.design.focuser_angle_deg", focuser_angle_deg, -360.0, 360.0, "°")?;
             }

@@ -190,6 +190,24 @@ pub fn rise_transit_set(
     })
 }
 
+/// Rise, culmination and set of a catalog star at a site (apparent place of date,
+/// geometric altitude against `horizon_rad`, e.g. [`STAR_HORIZON_RAD`]).
+pub fn star_rise_transit_set(
+    place: &crate::sky::apparent::CatalogPlace,
+    epoch_jyear: f64,
+    site: &Site,
+    start_utc_jd: f64,
+    end_utc_jd: f64,
+    horizon_rad: f64,
+) -> Result<RiseTransitSet, RiseSetError> {
+    validate_site(site).map_err(RiseSetError::Site)?;
+    let alt = |jd: f64| match Instant::from_utc_jd(jd) {
+        Ok(t) => to_horizontal(crate::sky::apparent::star_apparent(place, epoch_jyear, &t), site, &t).alt_rad,
+        Err(_) => f64::NAN,
+    };
+    rise_transit_set(alt, start_utc_jd, end_utc_jd, horizon_rad)
+}
+
 /// Meridian transits (hour angle crossing 0 westward) in a window, by root finding
 /// on `hour_angle_at(utc_jd)` (radians wrapped to (−π, π]).
 pub fn meridian_transits(hour_angle_at: impl Fn(f64) -> f64, start_utc_jd: f64, end_utc_jd: f64) -> Result<Vec<f64>, RiseSetError> {
