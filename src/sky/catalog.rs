@@ -10,6 +10,8 @@
 use core::fmt;
 
 pub(crate) mod bytes;
+mod set;
+pub use set::{credit, normalize_id, Catalogs, DSO_FILE, STAR_TIERS};
 use bytes::{crc32, Reader};
 
 /// File magic of a Nightfield star file.

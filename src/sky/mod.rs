@@ -7,12 +7,16 @@
 pub mod apparent;
 pub mod catalog;
 pub mod darkness;
+pub mod dso;
 pub mod earth_ephem;
 pub mod frames;
 pub mod horizon;
+pub mod index;
+pub mod names;
 pub mod nutation;
 pub mod refraction;
 pub mod riseset;
+pub mod search;
 
 use serde::{Deserialize, Serialize};
 
