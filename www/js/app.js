@@ -214,7 +214,7 @@ const app = {
       this.showError(`"${query}" was not found: ${e.message}`);
       return false;
     }
-    this.state.target = { by: 'name', name: query };
+    this.state.target = query;
     $('target-now').textContent = `Showing ${resolved && resolved.name ? resolved.name : query}.`;
     this.apply();
     return true;
@@ -232,7 +232,7 @@ function defaultState(kit) {
   const site = demoSite();
   const today = utcToZoned(Date.now(), site.tz).date;
   return { kit, site, utc_ms: zonedToUtcMs(today, '21:00', site.tz), stationId: kit.stations[0]?.id || null, eyepieceIndex: 0,
-    target: { by: 'name', name: 'M 45' }, view: { north_up: false, compare: false, night: false, labels: true } };
+    target: 'M 45', view: { north_up: false, compare: false, night: false, labels: true } };
 }
 
 function restoreSession(state) {
