@@ -123,7 +123,7 @@ pub fn advise(train: &Train, f: &Figures, cond: &Conditions, implied_stop_mm: Op
         match sampling(px, s) {
             Sampling::Under => out.push(format!(
                 "Pixel scale {px:.2}″ is coarse for {s:.1}″ seeing (under-sampled: want about {:.2}–{:.2}″ per pixel); \
-                 a Barlow lens would help.",
+                 a Barlow lens samples finer, over a smaller field.",
                 s / 3.0,
                 s / 2.0
             )),

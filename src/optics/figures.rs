@@ -315,12 +315,11 @@ pub fn figures_for(train: &Train, cond: &Conditions) -> Result<Figures, OpticsEr
                 let k = modifier_factor(m, barlow);
                 let (lo, hi) = if barlow { (1.0, 10.0) } else { (0.1, 1.0) };
                 if !(k > lo && k < hi) {
-                    return Err(OpticsError::OutOfRange {
-                        field: format!("accessories[{i}].extra_spacing_mm (gives a real factor of {k:.2})"),
-                        value: m.extra_spacing_mm,
-                        min: -100.0,
-                        max: 300.0,
-                        unit: " mm, and the real factor must stay between the limits",
+                    return Err(OpticsError::RealFactorOutOfRange {
+                        field: format!("accessories[{i}].extra_spacing_mm"),
+                        factor: k,
+                        min: lo,
+                        max: hi,
                     });
                 }
                 modifier_factors.push(k);

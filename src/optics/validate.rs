@@ -21,6 +21,9 @@ pub enum OpticsError {
     NotAllowed { index: usize, accessory: &'static str, instrument: &'static str },
     /// An accessory placed where it cannot sit in the light path.
     WrongPlace { index: usize, accessory: &'static str, rule: &'static str },
+    /// A Barlow or reducer moved so far from its design spacing that its real
+    /// factor leaves the range such a lens can have.
+    RealFactorOutOfRange { field: String, factor: f64, min: f64, max: f64 },
     /// Two choices that do not go together.
     Incompatible { what: &'static str },
     /// Binoculars need a stated true field or apparent field.
@@ -54,6 +57,10 @@ impl fmt::Display for OpticsError {
             }
             OpticsError::MissingField { field } => write!(f, "{field} is needed"),
             OpticsError::Incompatible { what } => write!(f, "{what}"),
+            OpticsError::RealFactorOutOfRange { field, factor, min, max } => write!(
+                f,
+                "{field} gives a real factor of {factor:.2}×; it must stay between {min} and {max}×"
+            ),
         }
     }
 }

@@ -240,6 +240,7 @@ pub fn draw(scene: &Scene, view: &ViewParams, frame: &mut Frame) -> Result<Vec<L
         markers::field_mask(&mut cv, scene, &t, view.dpr, &pal, rows);
         y = rows.1;
     }
+    shapes::draw_outlines(&mut cv, scene, &t, view.dpr, &pal);
     let mut labels = markers::draw_markers(&mut cv, scene, &t, view.dpr, &pal);
     labels.extend(object_labels(scene, &t, view));
     Ok(labels)

@@ -81,10 +81,6 @@ impl<'a> Canvas<'a> {
         Canvas { w, h, px, luts: luts() }
     }
 
-    /// Fills the whole buffer with one colour.
-    pub fn fill(&mut self, rgba: [u8; 4]) {
-        fill_rgba(self.px, rgba);
-    }
 
     /// Fills rows [first, end).
     pub fn fill_rows(&mut self, rows: (usize, usize), rgba: [u8; 4]) {

@@ -6,6 +6,8 @@
 //! Projection: gnomonic (TAN; Calabretta & Greisen 2002, A&A 395, 1077), so a
 //! straight line on screen is a great circle on the sky, as in an eyepiece.
 
+pub mod build;
+pub mod compose;
 pub mod skylight;
 
 use crate::orient::SkyToScreen;
@@ -384,4 +386,13 @@ pub fn polygon_signed_distance(corners: &[DVec2], p: DVec2) -> f64 {
         d = d.max((p - a).dot(nrm));
     }
     d
+}
+
+/// Mean surface brightness (mag/arcsec²) of an object of total magnitude
+/// `vmag` spread over an ellipse of full axes `major_arcmin` × `minor_arcmin`
+/// (common practice: m + 2.5 log10(area in arcsec²)).
+pub fn mean_surface_brightness(vmag: f64, major_arcmin: f64, minor_arcmin: f64) -> f64 {
+    let minor = if minor_arcmin > 0.0 { minor_arcmin } else { major_arcmin };
+    let area = core::f64::consts::PI * 0.25 * (major_arcmin * 60.0) * (minor * 60.0);
+    vmag + 2.5 * libm::log10(area.max(1e-6))
 }

@@ -12,6 +12,7 @@ pub mod jupiter;
 pub mod jupiter_events;
 pub mod moon;
 pub mod physical;
+pub mod riseset;
 pub mod saturn;
 pub mod state;
 pub mod topocentric;
@@ -80,6 +81,10 @@ pub enum SolarError {
     OutOfCoverage { tt_jd: f64, start_jd: f64, end_jd: f64 },
     /// A time input was not a finite number.
     NotFinite { field: &'static str },
+    /// A search window that is empty, reversed, longer than 40 days or outside 1800–2200.
+    Window { start_utc_jd: f64, end_utc_jd: f64 },
+    /// The site's latitude, longitude or elevation is out of range.
+    BadSite,
 }
 
 impl fmt::Display for SolarError {
@@ -91,6 +96,15 @@ impl fmt::Display for SolarError {
                  Julian dates {start_jd:.1} to {end_jd:.1} (1950-01-01 to 2050-12-05)"
             ),
             SolarError::NotFinite { field } => write!(f, "{field} must be a finite number"),
+            SolarError::Window { start_utc_jd, end_utc_jd } => write!(
+                f,
+                "search window {start_utc_jd:.3} to {end_utc_jd:.3} (UTC Julian dates) must run forward, \
+                 last at most 40 days and lie within the supported years"
+            ),
+            SolarError::BadSite => write!(
+                f,
+                "site must have latitude −90° to 90°, longitude −180° to 180° and a plausible elevation"
+            ),
         }
     }
 }

@@ -44,6 +44,8 @@ export async function gotoReady(page, url) {
 
 /** RGBA bytes of a canvas, for exact comparisons. */
 export async function canvasBytes(page, sel = '#view') {
+  // Compare finished views only: every data tier loaded and drawn.
+  await page.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 });
   return page.evaluate((s) => {
     const c = document.querySelector(s);
     const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;

@@ -31,7 +31,7 @@ function scenario(pointing) {
   return toScenario({
     kit, stationId: 's', eyepieceIndex: 0, utc_ms: UTC_MS,
     site: { name: 'Test field (invented)', lat_deg: 47.05, lon_deg: 8.3, elev_m: 560, tz: 'Europe/Zurich' },
-    target: { by: 'coordinates', ra_deg: pointing.ra_rad / D, dec_deg: pointing.dec_rad / D },
+    target: { ra_deg: pointing.ra_rad / D, dec_deg: pointing.dec_rad / D },
     view: { north_up: true, night: false, labels: false },
   });
 }

@@ -181,14 +181,34 @@ const app = {
     }
   },
 
+  /** "Up tonight": the engine's night plan if it has one; otherwise each candidate is set up
+   *  in a spare engine at this site and time and kept if its altitude (from the engine) is above 10°. */
+  tonightRows() {
+    const eng = this.host.engine;
+    if (typeof eng.planNight === 'function') {
+      const plan = this.host.call((e) => e.planNight(toScenario(this.state)));
+      return Array.isArray(plan) ? plan : plan?.up_tonight || plan?.targets || [];
+    }
+    const spare = this.host.secondary('tonight');
+    const rows = [];
+    for (const name of TONIGHT_CANDIDATES) {
+      try {
+        const f = this.host.call((e) => e.setScenario(toScenario(this.state, { target: name })), spare);
+        if (f.alt_deg > 10) rows.push({ name: f.target_name || name, query: name, alt_deg: f.alt_deg, kind: f.target_kind });
+      } catch (e) {
+        if (e.engineDied) throw e; // not loaded yet or not found: leave it out
+      }
+    }
+    return rows.sort((a, b) => b.alt_deg - a.alt_deg);
+  },
+
   renderTonight() {
     const list = $('tonight');
-    let plan;
-    try { plan = this.host.call((e) => e.planNight(toScenario(this.state))); } catch (e) {
+    let rows;
+    try { rows = this.tonightRows(); } catch (e) {
       list.replaceChildren(li(`The list could not be made: ${e.message}`));
       return;
     }
-    const rows = Array.isArray(plan) ? plan : plan?.up_tonight || plan?.targets || [];
     if (!rows.length) { list.replaceChildren(li('Nothing from the list is above the horizon at this time.')); return; }
     list.replaceChildren(...rows.slice(0, 40).map((r) => {
       const b = document.createElement('button');
@@ -197,9 +217,7 @@ const app = {
       const sub = document.createElement('span'); sub.className = 'sub';
       const bits = [];
       if (typeof r.alt_deg === 'number') bits.push(`altitude ${r.alt_deg.toFixed(0)}°`);
-      if (r.best_time_utc) bits.push(`best ${new Date(r.best_time_utc).toLocaleTimeString([], { timeZone: this.state.site.tz, hour: '2-digit', minute: '2-digit' })}`);
       if (r.kind) bits.push(r.kind);
-      if (typeof r.vmag === 'number') bits.push(`mag ${r.vmag.toFixed(1)}`);
       sub.textContent = bits.join(' · ');
       b.append(sub);
       b.addEventListener('click', () => this.setTarget(r.query || r.name || r.id));
@@ -214,12 +232,18 @@ const app = {
       this.showError(`"${query}" was not found: ${e.message}`);
       return false;
     }
-    this.state.target = { by: 'name', name: query };
+    this.state.target = query;
     $('target-now').textContent = `Showing ${resolved && resolved.name ? resolved.name : query}.`;
     this.apply();
     return true;
   },
 };
+
+// The Moon, the planets and bright deep-sky objects of both hemispheres (common outreach targets).
+const TONIGHT_CANDIDATES = ['Moon', 'Mercury', 'Venus', 'Mars', 'Jupiter', 'Saturn', 'Uranus', 'Neptune',
+  'M 31', 'M 42', 'M 45', 'M 44', 'M 13', 'M 57', 'M 27', 'M 81', 'M 82', 'M 51', 'M 35', 'M 36', 'M 37', 'M 38',
+  'M 1', 'M 33', 'M 3', 'M 5', 'M 15', 'M 2', 'M 8', 'M 11', 'M 17', 'M 20', 'M 22', 'M 104', 'NGC 869', 'NGC 884',
+  'NGC 7000', 'NGC 253', 'NGC 5139', 'NGC 104', 'NGC 3372'];
 
 function li(text) { const e = document.createElement('li'); e.textContent = text; return e; }
 
@@ -232,7 +256,7 @@ function defaultState(kit) {
   const site = demoSite();
   const today = utcToZoned(Date.now(), site.tz).date;
   return { kit, site, utc_ms: zonedToUtcMs(today, '21:00', site.tz), stationId: kit.stations[0]?.id || null, eyepieceIndex: 0,
-    target: { by: 'name', name: 'M 45' }, view: { north_up: false, compare: false, night: false, labels: true } };
+    target: 'M 45', view: { north_up: false, compare: false, night: false, labels: true } };
 }
 
 function restoreSession(state) {
@@ -384,6 +408,7 @@ async function main() {
     return;
   }
   openLink();
+  showTiers(app.tiers).catch(() => {});
   window.addEventListener('hashchange', () => { openLink(); renderKit(app); app.apply(); });
   try { await loadCatalogs(app.tiers); } catch (e) { app.showError(e.message); }
   if (!app.painted) app.apply();

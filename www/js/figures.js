@@ -31,7 +31,7 @@ export function figureRows(f) {
   const alt = deg(f, 'alt_deg', 'alt_rad');
   add('Altitude', alt === undefined ? null : `${alt.toFixed(1)}°${alt < 0 ? ' (below the horizon)' : ''}`);
   add('Azimuth', angle(deg(f, 'az_deg', 'az_rad')));
-  add('Drift across the field', duration(pick(f, 'drift_s', 'drift_time_s')));
+  add('Drift time', duration(pick(f, 'drift_s', 'drift_time_s')));
   add('Target size', pick(f, 'size_words'));
   add('Visibility', pick(f, 'visibility', 'visibility_words'));
   return rows;

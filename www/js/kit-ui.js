@@ -106,6 +106,7 @@ function editItem(app, id) {
   const cancel = el('button', { className: 'btn', type: 'button', textContent: 'Cancel' });
   kids.push(el('div', { className: 'row' }, save, cancel));
   form.replaceChildren(...kids);
+  form.noValidate = true; // our own check gives the plain message with the allowed range
   form.hidden = false;
   $('station-form').hidden = true;
   cancel.addEventListener('click', () => { form.hidden = true; });

@@ -1,7 +1,7 @@
 // The page state <-> the engine's Scenario JSON (src/scenario.rs is the authority on its shape).
 // All mapping lives here so the rest of the page does not depend on the field names.
 
-import { isValidZone, utcToZoned, zoneOffsetMs } from './time.js';
+import { isValidZone, isoUtc } from './time.js';
 import { validateKit } from './kit.js';
 
 /** Demo site: an invented field of an invented club. */
@@ -39,35 +39,42 @@ export function trainFor(kit, station, eyepieceIndex) {
     accessories: acc, mount: tel.mount === 'equatorial' ? { kind: 'equatorial', pier_side: 'west' } : { kind: 'alt_az' } };
 }
 
-/** Target as the engine's TargetSpec: a name the search resolves, or ICRS coordinates. */
+/** Target as the engine's TargetSpec: a name (string) the search resolves, or ICRS coordinates. */
 export function targetSpec(t) {
-  if (t && typeof t === 'object' && t.by === 'coordinates') return { by: 'coordinates', ra_deg: +t.ra_deg, dec_deg: +t.dec_deg };
-  if (t && typeof t === 'object' && t.by === 'name') return { by: 'name', name: String(t.name) };
-  return { by: 'name', name: String(t || '') };
+  if (t && typeof t === 'object' && Number.isFinite(t.ra_deg) && Number.isFinite(t.dec_deg)) return { ra_deg: +t.ra_deg, dec_deg: +t.dec_deg };
+  if (t && typeof t === 'object' && typeof t.name === 'string') return t.name;
+  return String(t || '');
 }
 
 export function targetLabel(t) {
   const s = targetSpec(t);
-  return s.by === 'name' ? s.name : `RA ${s.ra_deg.toFixed(3)}°, Dec ${s.dec_deg.toFixed(3)}°`;
+  return typeof s === 'string' ? s : `RA ${s.ra_deg.toFixed(3)}°, Dec ${s.dec_deg.toFixed(3)}°`;
+}
+
+/** Every station's trains, one per eyepiece (or one if it has none), for the night plan. */
+export function stationSpecs(kit) {
+  return kit.stations.map((st) => ({
+    name: st.name,
+    trains: (st.eyepieces.length ? st.eyepieces : [null]).map((_, i) => trainFor(kit, st, i)),
+  }));
 }
 
 export function toScenario(state, overrides = {}) {
   const s = { ...state, ...overrides };
   const stationIndex = Math.max(0, s.kit.stations.findIndex((st) => st.id === s.stationId));
   const station = s.kit.stations[stationIndex];
-  const wall = utcToZoned(s.utc_ms, s.site.tz);
-  const secs = String(new Date(s.utc_ms).getUTCSeconds()).padStart(2, '0');
   return {
     version: 1,
-    site: { name: s.site.name, lat_deg: s.site.lat_deg, lon_deg: s.site.lon_deg, elev_m: s.site.elev_m, time_zone: s.site.tz },
-    time: { local: `${wall.date}T${wall.time}:${secs}`, utc_offset_min: Math.round(zoneOffsetMs(s.utc_ms, s.site.tz) / 60000) },
-    event: { start: s.site.event_start || '', end: s.site.event_end || '' },
+    site: { name: s.site.name, lat_deg: s.site.lat_deg, lon_deg: s.site.lon_deg, elev_m: s.site.elev_m, tz: s.site.tz,
+      event_start: s.site.event_start || '', event_end: s.site.event_end || '' },
+    time_utc: isoUtc(s.utc_ms),
     kit: s.kit,
     station: stationIndex,
     eyepiece: s.eyepieceIndex,
     train: station ? trainFor(s.kit, station, s.eyepieceIndex) : null,
+    stations: stationSpecs(s.kit),
     target: targetSpec(s.target),
-    view: { north_up: !!s.view.north_up, night: !!s.view.night, labels: s.view.labels !== false },
+    view: { north_up: !!s.view.north_up, night: !!s.view.night, labels: s.view.labels !== false, compare: !!s.view.compare },
   };
 }
 
@@ -79,21 +86,19 @@ export function fromScenario(sc) {
   for (const [k, lo, hi] of [['lat_deg', -90, 90], ['lon_deg', -180, 180]]) {
     if (typeof site[k] !== 'number' || site[k] < lo || site[k] > hi) throw new Error(`The link's site ${k} is ${site[k]}; allowed ${lo} to ${hi}.`);
   }
-  const tz = isValidZone(site.time_zone) ? site.time_zone : 'UTC';
-  const t = sc.time || {};
-  const m = /^(\d{4}-\d{2}-\d{2})[T ](\d{2}:\d{2})(?::(\d{2}))?/.exec(String(t.local || ''));
-  if (!m || !Number.isFinite(t.utc_offset_min)) throw new Error(`The link's time "${t.local}" is not a date and time.`);
-  // The link's own offset decides the instant (a link opened in another zone keeps the site's times).
-  const utc_ms = Date.parse(`${m[1]}T${m[2]}:${m[3] || '00'}Z`) - t.utc_offset_min * 60000;
+  const tz = isValidZone(site.tz) ? site.tz : 'UTC';
+  // The instant is UTC, so a link opened in another zone keeps the site's times.
+  const utc_ms = Date.parse(String(sc.time_utc || ''));
+  if (!Number.isFinite(utc_ms)) throw new Error(`The link's time "${sc.time_utc}" is not a date and time.`);
   const st = kit.stations[sc.station | 0] || kit.stations[0];
   return {
     kit,
     site: { name: String(site.name || ''), lat_deg: site.lat_deg, lon_deg: site.lon_deg, elev_m: +site.elev_m || 0, tz,
-      event_start: sc.event?.start || '', event_end: sc.event?.end || '' },
+      event_start: site.event_start || '', event_end: site.event_end || '' },
     utc_ms,
     stationId: st ? st.id : null,
     eyepieceIndex: sc.eyepiece | 0,
     target: targetSpec(sc.target),
-    view: { north_up: !!sc.view?.north_up, night: !!sc.view?.night, labels: sc.view?.labels !== false },
+    view: { north_up: !!sc.view?.north_up, night: !!sc.view?.night, labels: sc.view?.labels !== false, compare: !!sc.view?.compare },
   };
 }

@@ -22,7 +22,7 @@ export function paint(host, engine, canvas, night, labels = true) {
   ctx.fillStyle = night ? '#ff3020' : '#d8e4ee';
   for (const l of labels ? info.labels || [] : []) {
     if (typeof l.text !== 'string') continue;
-    ctx.fillText(l.text, l.x, l.y);
+    ctx.fillText(l.text, l.x_px ?? l.x, l.y_px ?? l.y);
   }
   return info;
 }
