@@ -105,6 +105,9 @@ pub struct Route {
     pub method: &'static str,
 }
 
+/// Longest start-to-target distance searched: star hops start near the target.
+pub const MAX_ROUTE_RAD: f64 = 60.0 * core::f64::consts::PI / 180.0;
+
 pub const METHOD: &str = "shortest path (Dijkstra) over visible stars; a hop is at most the finder's field radius less the edge margin; cost = fewest hops, then shortest total length";
 
 /// The cone to fetch candidate stars from (centre, radius) for a route from
@@ -250,6 +253,13 @@ pub fn plan_route_named(
     let hop = max_hop_rad(finder, rules);
     let star_limit = finder_limit_mag - rules.visibility_margin_mag;
     let d = sep_rad(s0.pos(), target);
+    if !(d <= MAX_ROUTE_RAD) {
+        return Err(FindError::OutOfRange {
+            field: "distance from the starting star to the target (degrees)",
+            value: d.to_degrees(),
+            allowed: "at most 60°: start from a bright star nearer the target",
+        });
+    }
     let mut last_err = None;
     for w in corridor_widths(d, hop) {
         match search(stars, start, target, hop, star_limit, d, w) {
