@@ -48,14 +48,15 @@ fn check_route(stars: &[HopStar], start: usize, target: Equatorial, f: &Finder, 
     }
 }
 
-/// Independent check: breadth-first search for the fewest hops over the same
-/// visible stars (all pairs, no grid), then the least length among those.
+/// Independent check: layered relaxation over ALL pairs of the same visible
+/// stars (no grid, no corridor): the fewest hops, and among those the least
+/// cost, where landing on a star adds 0.1·hop·max(0, V − (limit − 3)).
 fn brute(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_limit: f64) -> Option<(usize, f64)> {
-    let mut pts: Vec<Equatorial> = vec![stars[start].pos()];
-    pts.extend(stars.iter().enumerate().filter(|(i, s)| *i != start && (s.vmag as f64) <= star_limit).map(|(_, s)| s.pos()));
-    pts.push(target);
+    let mut pts: Vec<(Equatorial, f64)> = vec![(stars[start].pos(), 0.0)];
+    pts.extend(stars.iter().enumerate().filter(|(i, s)| *i != start && (s.vmag as f64) <= star_limit)
+        .map(|(_, s)| (s.pos(), 0.1 * hop * ((s.vmag as f64) - (star_limit - 3.0)).max(0.0))));
+    pts.push((target, 0.0));
     let n = pts.len();
-    // Bellman-Ford style layers: best length reaching each node in exactly k hops.
     let mut cur = vec![f64::INFINITY; n];
     cur[0] = 0.0;
     for k in 1..n {
@@ -63,9 +64,9 @@ fn brute(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_lim
         for i in 0..n {
             if cur[i].is_finite() {
                 for j in 0..n {
-                    let d = sep_rad(pts[i], pts[j]);
-                    if i != j && d <= hop && cur[i] + d < next[j] {
-                        next[j] = cur[i] + d;
+                    let d = sep_rad(pts[i].0, pts[j].0);
+                    if i != j && d <= hop && cur[i] + d + pts[j].1 < next[j] {
+                        next[j] = cur[i] + d + pts[j].1;
                     }
                 }
             }
@@ -90,7 +91,8 @@ fn route_is_valid_and_shortest() {
     check_route(&stars, start, target, &f, limit, &r);
     let (k, len) = brute(&stars, start, target, r.max_hop_rad, r.star_limit_mag).unwrap();
     assert_eq!(r.hop_count, k);
-    assert!((r.total_rad - len).abs() < 1e-9, "{} vs {}", r.total_rad, len);
+    assert!((r.cost_rad - len).abs() < 1e-9, "{} vs {}", r.cost_rad, len);
+    assert!(r.total_rad <= r.cost_rad + 1e-15);
     assert!(r.steps[0].sentence.starts_with("Step 1: from the start star, move "), "{}", r.steps[0].sentence);
     assert!(r.steps.last().unwrap().lands_on.starts_with("the target"));
 }
@@ -153,7 +155,7 @@ proptest! {
         let f = finder();
         let limit = f.limiting_mag(5.5, 7.0).unwrap();
         let target = eq(ra + tra / dec.to_radians().cos(), dec + tdec);
-        let rules = HopRules { edge_margin: margin, visibility_margin_mag: 0.5 };
+        let rules = HopRules { edge_margin: margin, visibility_margin_mag: 0.5, faintness_penalty: 0.1 };
         let start = choose_start(&stars, eq(ra - 3.0, dec), 5.0, 8f64.to_radians());
         prop_assume!(start.is_some());
         let start = start.unwrap();
@@ -168,7 +170,7 @@ proptest! {
                 }
                 let (k, len) = brute(&stars, start, target, r.max_hop_rad, r.star_limit_mag).unwrap();
                 prop_assert_eq!(r.hop_count, k);
-                prop_assert!((r.total_rad - len).abs() < 1e-9);
+                prop_assert!((r.cost_rad - len).abs() < 1e-9);
             }
             Err(_) => prop_assert!(brute(&stars, start, target, f.field_radius_rad() * (1.0 - margin), limit - 0.5).is_none()),
         }
@@ -242,7 +244,7 @@ proptest! {
                 let _ = f.main_field_marker(vals[7], (vals[8], vals[9]), vals[10]);
                 let _ = f.view(vals[10], vals[7], (vals[8], vals[9]), vals[5]);
                 let stars: Vec<HopStar> = (0..n).map(|i| HopStar { ra_rad: vals[i % 12] * 1e-3 * i as f64, dec_rad: vals[(i + 3) % 12] * 1e-3, vmag: vals[(i + 5) % 12] as f32, id: i as u32 }).collect();
-                let rules = HopRules { edge_margin: vals[11].abs().min(2.0), visibility_margin_mag: 0.5 };
+                let rules = HopRules { edge_margin: vals[11].abs().min(2.0), visibility_margin_mag: 0.5, faintness_penalty: 0.1 };
                 let _ = plan_route(&stars, start, "S", eq(vals[0] * 1e-3, vals[1] * 1e-3), "T", &f, vals[5], UpReference::North, &rules);
             }
         }
