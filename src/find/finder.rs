@@ -5,11 +5,12 @@
 //! Orientation is built in two steps: the naked-eye view of that part of the
 //! sky with the zenith (or whatever the caller calls "up") at the top, then
 //! the finder's own optical parity in the observer's screen frame. This is
-//! finder-specific geometry; the general train orientation lives in
-//! `orient.rs` / `optics` (owned by the optics module).
+//! finder-specific closed form; tests/find_orient_xcheck.rs checks it equal
+//! to the optics module's general 3-D fold model (`orient::orientation`) for
+//! each finder expressed as a train (`Finder::to_train`).
 
-use super::geom::rot2;
 use super::{check, FindError};
+use crate::optics::train::Train;
 use crate::orient::SkyToScreen;
 use glam::{DMat2, DVec2};
 use serde::{Deserialize, Serialize};
@@ -134,11 +135,13 @@ impl Finder {
         let loss = |t: f64| -2.5 * libm::log10(t);
         Ok(match self.spec.kind {
             FinderKind::ReflexSight { .. } => naked_eye_limit_mag - loss(WINDOW_TRANSMISSION),
-            _ => {
-                let d_eff = self.spec.aperture_mm.min(self.spec.magnification * eye_pupil_mm);
-                let gain = 5.0 * libm::log10(d_eff / eye_pupil_mm);
-                naked_eye_limit_mag + gain.max(0.0) - loss(GLASS_TRANSMISSION)
-            }
+            _ => crate::optics::figures::limiting_mag(
+                naked_eye_limit_mag,
+                self.spec.aperture_mm,
+                self.spec.magnification,
+                eye_pupil_mm,
+                GLASS_TRANSMISSION,
+            ),
         })
     }
 
@@ -185,6 +188,41 @@ impl Finder {
         Ok(FieldMarker { centre_right: c.x, centre_up: c.y, radius: main_true_field_rad / 2.0 / r })
     }
 
+    /// This finder as an optics train on an alt-azimuth mount, for the
+    /// general orientation model (`orient::orientation`, `orient::report`):
+    /// the right-angle finder's eyepiece points toward the tube's top.
+    pub fn to_train(&self) -> Train {
+        use crate::optics::train as t;
+        let finder = |erecting| {
+            t::Instrument::Finder(t::Finder {
+                aperture_mm: self.spec.aperture_mm,
+                magnification: self.spec.magnification,
+                true_field_deg: self.spec.true_field_deg,
+                erecting,
+                transmission: GLASS_TRANSMISSION,
+            })
+        };
+        let diagonal = |prism| t::Accessory::StarDiagonal(t::StarDiagonal { prism, rotation_deg: 0.0, transmission: None });
+        let (instrument, accessories) = match self.spec.kind {
+            FinderKind::StraightThrough => (finder(false), vec![]),
+            FinderKind::RightAngle { prism: PrismKind::Mirror } => (finder(false), vec![diagonal(t::DiagonalKind::Mirror90)]),
+            FinderKind::RightAngle { prism: PrismKind::Erect } => (finder(false), vec![diagonal(t::DiagonalKind::ErectingRoof90)]),
+            FinderKind::ReflexSight { .. } => (t::Instrument::NakedEye(t::NakedEye { field_deg: self.spec.true_field_deg }), vec![]),
+            FinderKind::Binoculars => (
+                t::Instrument::Binoculars(t::Binoculars {
+                    aperture_mm: self.spec.aperture_mm,
+                    magnification: self.spec.magnification,
+                    true_field_deg: Some(self.spec.true_field_deg),
+                    apparent_field_deg: None,
+                    eye_relief_mm: None,
+                    transmission: GLASS_TRANSMISSION,
+                }),
+                vec![],
+            ),
+        };
+        Train { name: String::new(), instrument, accessories, mount: t::Mount::AltAz }
+    }
+
     /// Radius of what the eye sees through the finder (a reflex sight's window).
     pub fn view_radius_rad(&self) -> f64 {
         (self.spec.true_field_deg / 2.0).to_radians()
@@ -211,7 +249,7 @@ impl Finder {
 }
 
 /// The naked-eye view with the sky direction at position angle `up_pa_rad`
-/// at the top: the chart [[-1,0],[0,1]] turned by −up_pa.
+/// at the top: the chart [[-1,0],[0,1]] turned by −up_pa (`orient::naked_eye_view`).
 pub fn naked_eye(up_pa_rad: f64) -> SkyToScreen {
-    SkyToScreen { m: rot2(-up_pa_rad) * SkyToScreen::chart().m }
+    crate::orient::naked_eye_view(up_pa_rad)
 }
