@@ -1,13 +1,14 @@
 //! Star hops over the real catalogs (Hipparcos bright + faint tiers and the
 //! Gaia DR3 tier, as built in catalog/). Start stars are found by IAU name
-//! (catalog/names_iau.tsv, from skyfield's named_star_dict); target places
-//! are J2000 values from memory (M3 13h42m11.6s +28°22′38″, M13 16h41m41.2s
-//! +36°27′35″): the checks are the route rules, which do not depend on them.
-use nightfield::find::bench::{bench_finder, bench_route_search, BENCH_TARGET};
+//! (catalog/names_iau.tsv, from skyfield's named_star_dict); targets come
+//! from OpenNGC (catalog/dso_openngc.nfd), except the bench's M3, from memory
+//! and checked against OpenNGC here.
+use nightfield::find::bench::{bench_finder, bench_route_search, bench_route_search_indexed, BENCH_START, BENCH_TARGET};
 use nightfield::find::finder::*;
 use nightfield::find::geom::sep_rad;
 use nightfield::find::hop::*;
-use nightfield::find::sources::{find_hip, hop_stars};
+use nightfield::find::sources::{find_hip, hop_index, hop_stars, plan_route_indexed};
+use nightfield::sky::index::SkyIndex;
 use nightfield::sky::catalog::decode_stars;
 use nightfield::sky::Equatorial;
 use std::sync::OnceLock;
@@ -25,6 +26,11 @@ fn deep() -> &'static Vec<HopStar> {
     })
 }
 
+fn index() -> &'static SkyIndex {
+    static I: OnceLock<SkyIndex> = OnceLock::new();
+    I.get_or_init(|| hop_index(deep()))
+}
+
 fn hip_of(name: &str) -> u32 {
     NAMES.lines().find_map(|l| {
         let mut it = l.split('\t');
@@ -39,7 +45,11 @@ fn name_of(id: u32) -> Option<String> {
     })
 }
 
-const M13: Equatorial = Equatorial { ra_rad: 4.367_445, dec_rad: 0.636_196 };
+/// M13's place from OpenNGC (catalog/dso_openngc.nfd).
+fn messier(m: u8) -> Equatorial {
+    let d = nightfield::sky::dso::decode_dso(include_bytes!("../catalog/dso_openngc.nfd")).unwrap();
+    d.objects.iter().find(|o| o.messier == m).map(|o| Equatorial { ra_rad: o.ra_rad, dec_rad: o.dec_rad }).unwrap()
+}
 
 fn check_rules(r: &Route, stars: &[HopStar], start: usize, target: Equatorial, f: &Finder, limit: f64, margin: f64) {
     assert_eq!(r.points[0].star_id, Some(stars[start].id));
@@ -84,14 +94,14 @@ fn alphecca_to_m13_with_a_reflex_sight() {
     let start = find_hip(stars, hip_of("Alphecca")).unwrap();
     let rings = |outer: f64| Finder::new(FinderSpec { kind: FinderKind::ReflexSight { ring_radii_deg: vec![0.5, 2.0, outer] }, aperture_mm: 0.0, magnification: 1.0, true_field_deg: 30.0 }).unwrap();
     let small = rings(4.0);
-    let e = plan_route(stars, start, "Alphecca", M13, "M13", &small, small.limiting_mag(6.0, 7.0).unwrap(), UpReference::North, &HopRules::default()).unwrap_err();
+    let e = plan_route(stars, start, "Alphecca", messier(13), "M13", &small, small.limiting_mag(6.0, 7.0).unwrap(), UpReference::North, &HopRules::default()).unwrap_err();
     assert!(e.to_string().contains("gap wider than 3.2°"), "{e}");
     let f = rings(6.0);
     let limit = f.limiting_mag(6.5, 7.0).unwrap();
     assert!(limit < 6.5);
     let rules = HopRules::default();
-    let r = plan_route(stars, start, "Alphecca", M13, "M13", &f, limit, UpReference::North, &rules).unwrap();
-    check_rules(&r, stars, start, M13, &f, limit, rules.edge_margin);
+    let r = plan_route(stars, start, "Alphecca", messier(13), "M13", &f, limit, UpReference::North, &rules).unwrap();
+    check_rules(&r, stars, start, messier(13), &f, limit, rules.edge_margin);
     assert!(r.hop_count >= 2);
     for p in &r.points[1..r.points.len() - 1] {
         assert!((p.vmag.unwrap() as f64) <= limit - rules.visibility_margin_mag);
@@ -106,29 +116,59 @@ fn vega_to_m13_with_binoculars() {
     let limit = f.limiting_mag(5.5, 7.0).unwrap();
     let start = find_hip(stars, hip_of("Vega")).unwrap();
     let rules = HopRules { edge_margin: 0.3, visibility_margin_mag: 1.0, faintness_penalty: 0.1 };
-    let r = plan_route(stars, start, "Vega", M13, "M13", &f, limit, UpReference::North, &rules).unwrap();
-    check_rules(&r, stars, start, M13, &f, limit, rules.edge_margin);
+    let r = plan_route(stars, start, "Vega", messier(13), "M13", &f, limit, UpReference::North, &rules).unwrap();
+    check_rules(&r, stars, start, messier(13), &f, limit, rules.edge_margin);
 }
 
-/// Native time of the route-search bench (the lead times the same function in wasm).
+/// Native time of the route-search bench (the lead times the same functions
+/// in wasm): full scan and through the spatial index, with their ratio.
 #[test]
 #[ignore]
 fn bench_route_search_native() {
     let stars = deep();
-    let _ = bench_route_search(stars).unwrap();
-    let mut times = Vec::new();
-    for _ in 0..15 {
-        let t = std::time::Instant::now();
-        let r = bench_route_search(stars).unwrap();
-        times.push(t.elapsed().as_secs_f64() * 1e3);
-        std::hint::black_box(r);
-    }
-    times.sort_by(|a, b| a.total_cmp(b));
+    let idx = index();
+    let time = |f: &dyn Fn() -> Route| {
+        let _ = f();
+        let mut t_ms: Vec<f64> = (0..21).map(|_| {
+            let t = std::time::Instant::now();
+            std::hint::black_box(f());
+            t.elapsed().as_secs_f64() * 1e3
+        }).collect();
+        t_ms.sort_by(|a, b| a.total_cmp(b));
+        t_ms[t_ms.len() / 2]
+    };
+    let scan = time(&|| bench_route_search(stars).unwrap());
+    let indexed = time(&|| bench_route_search_indexed(stars, idx).unwrap());
     let r = bench_route_search(stars).unwrap();
     println!(
-        "route search Arcturus→M3 over {} stars ({} in the corridor, {} hops): median {:.2} ms, min {:.2} ms",
-        stars.len(), r.stars_considered, r.hop_count, times[times.len() / 2], times[0]
+        "route search Arcturus→M3 over {} stars ({} in the corridor, {} hops): full scan median {:.2} ms, indexed median {:.3} ms, scan/indexed {:.1}×",
+        stars.len(), r.stars_considered, r.hop_count, scan, indexed, scan / indexed
     );
+}
+
+/// The indexed search finds the same route as the full scan.
+#[test]
+fn indexed_route_equals_full_scan() {
+    let stars = deep();
+    let a = bench_route_search(stars).unwrap();
+    let b = bench_route_search_indexed(stars, index()).unwrap();
+    assert_eq!(a.points, b.points);
+    assert_eq!(a.cost_rad, b.cost_rad);
+    let f = Finder::new(FinderSpec { kind: FinderKind::Binoculars, aperture_mm: 50.0, magnification: 10.0, true_field_deg: 6.5 }).unwrap();
+    let start = find_hip(stars, hip_of("Vega")).unwrap();
+    let rules = HopRules::default();
+    let full = plan_route(stars, start, "Vega", messier(13), "M13", &f, 9.0, UpReference::North, &rules).unwrap();
+    let idx = plan_route_indexed(stars, index(), start, "Vega", messier(13), "M13", &f, 9.0, UpReference::North, &rules, &|_| None).unwrap();
+    assert_eq!(full.points, idx.points);
+}
+
+/// The bench's J2000 places from memory agree with OpenNGC (catalog/dso_openngc.nfd)
+/// within 1′, and the bench start lies within 1′ of Arcturus in the catalog.
+#[test]
+fn memory_places_agree_with_the_catalogs() {
+    assert!(sep_rad(messier(3), BENCH_TARGET).to_degrees() * 60.0 < 1.0);
+    let arcturus = deep()[find_hip(deep(), hip_of("Arcturus")).unwrap()].pos();
+    assert!(sep_rad(arcturus, BENCH_START).to_degrees() * 60.0 < 1.0);
 }
 
 /// A whole card for M13 from an invented site on a June night: the route's
@@ -147,7 +187,7 @@ fn m13_card_on_a_june_night() {
     let site = site_from_deg(50.5, 8.25, 200.0).unwrap();
     let t = Instant::from_civil(2026, 6, 15, 23, 30, 0.0, 120).unwrap();
     let place = |p: Equatorial| CatalogPlace { ra_rad: p.ra_rad, dec_rad: p.dec_rad, pm_ra_cosdec_mas_yr: 0.0, pm_dec_mas_yr: 0.0, parallax_mas: 0.0, rv_km_s: 0.0 };
-    let app = star_apparent(&place(M13), 2000.0, &t);
+    let app = star_apparent(&place(messier(13)), 2000.0, &t);
     let f = bench_finder().unwrap();
     let req = CardRequest {
         site, t, target_label: "M13", target_apparent: app, finder: &f, main_true_field_rad: 0.8f64.to_radians(),

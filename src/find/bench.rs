@@ -27,3 +27,21 @@ pub fn bench_route_search(stars: &[HopStar]) -> Result<Route, FindError> {
         .ok_or(FindError::NoRoute { reason: "no star brighter than mag 1 within 0.5° of the bench start".into() })?;
     plan_route(stars, start, "Arcturus", BENCH_TARGET, "M3", &finder, limit, UpReference::North, &HopRules::default())
 }
+
+/// The same workload through the spatial index (`sources::plan_route_indexed`);
+/// build `index` once with `sources::hop_index(stars)`.
+pub fn bench_route_search_indexed(stars: &[HopStar], index: &crate::sky::index::SkyIndex) -> Result<Route, FindError> {
+    let finder = bench_finder()?;
+    let limit = finder.limiting_mag(6.0, 7.0)?;
+    let near = index.cone(BENCH_START, 0.5f64.to_radians(), 1.0);
+    let start = near
+        .iter()
+        .copied()
+        .min_by(|&a, &b| {
+            let da = crate::find::geom::sep_rad(stars[a as usize].pos(), BENCH_START);
+            let db = crate::find::geom::sep_rad(stars[b as usize].pos(), BENCH_START);
+            da.total_cmp(&db).then(a.cmp(&b))
+        })
+        .ok_or(FindError::NoRoute { reason: "no star brighter than mag 1 within 0.5° of the bench start".into() })?;
+    crate::find::sources::plan_route_indexed(stars, index, start as usize, "Arcturus", BENCH_TARGET, "M3", &finder, limit, UpReference::North, &HopRules::default(), &|_| None)
+}
