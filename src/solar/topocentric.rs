@@ -51,3 +51,21 @@ pub fn all_bodies(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<[BodyStat
 pub fn body_horizontal(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<Horizontal, SolarError> {
     Ok(to_horizontal(apparent_place(eph, body, t, site)?.ra_dec, site, t))
 }
+
+/// All bodies every `step_minutes` from `start` for `hours` (e.g. a night in
+/// 5-minute steps: the planner's track and the bench's workload).
+pub fn night_track(eph: &Ephemeris, start: &Instant, site: &Site, step_minutes: f64, hours: f64) -> Result<Vec<[BodyState; 9]>, SolarError> {
+    if !(step_minutes.is_finite() && hours.is_finite() && step_minutes >= 0.5 && hours >= 0.0 && hours <= 48.0) {
+        return Err(SolarError::NotFinite { field: "night track step (≥ 0.5 min) or length (0–48 h)" });
+    }
+    let n = (hours * 60.0 / step_minutes).floor() as usize + 1;
+    let mut out = Vec::with_capacity(n);
+    for i in 0..n {
+        let d = i as f64 * step_minutes / 1440.0;
+        let t = start
+            .plus_days(d)
+            .map_err(|_| SolarError::Window { start_utc_jd: start.utc_jd, end_utc_jd: start.utc_jd + hours / 24.0 })?;
+        out.push(all_bodies(eph, &t, site)?);
+    }
+    Ok(out)
+}
