@@ -3,6 +3,7 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { openBrowser, gotoReady, canvasBytes, screenshot, PHONE, DESKTOP } from './harness.mjs';
 import { linkPayload, readPayload } from './links.mjs';
+import jsQR from 'jsqr';
 
 const savedKit = (page) => page.evaluate(() => JSON.parse(localStorage.getItem('nightfield.kit') || 'null'));
 
@@ -96,9 +97,12 @@ test('share link round trip gives identical canvas pixels', async (t) => {
   await gotoReady(b.page, url);
   const after = await canvasBytes(b.page);
   assert.deepEqual(after, before);
-  // The QR code is drawn.
-  const qrW = await a.page.evaluate(() => document.getElementById('qr').width);
-  assert.ok(qrW >= 100);
+  // The QR code on the page reads back as the link (independent decoder: jsqr).
+  const qr = await a.page.evaluate(() => {
+    const c = document.getElementById('qr');
+    return { w: c.width, h: c.height, d: Array.from(c.getContext('2d').getImageData(0, 0, c.width, c.height).data) };
+  });
+  assert.equal(jsQR(Uint8ClampedArray.from(qr.d), qr.w, qr.h)?.data, link);
   assert.deepEqual([...a.errors, ...b.errors], []);
 });
 
@@ -169,5 +173,20 @@ test('a dead wasm instance is reported and replaced; nothing saved is lost', asy
   const after = await canvasBytes(page);
   assert.deepEqual(after, before);
   assert.deepEqual(await savedKit(page), kit);
+  assert.deepEqual(errors, []);
+});
+
+test('the Sun as target shows the solar caution', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.fill('#search', 'Sun');
+  await page.click('#search-form button[type="submit"]');
+  const c = page.locator('#solar-caution[role="alert"]');
+  await c.waitFor({ state: 'visible', timeout: 10000 });
+  assert.match(await c.textContent(), /full-aperture solar filter/);
+  // Back to a night target far from the Sun: the caution goes.
+  await page.fill('#search', 'M 45');
+  await page.click('#search-form button[type="submit"]');
+  await c.waitFor({ state: 'hidden', timeout: 10000 });
   assert.deepEqual(errors, []);
 });
