@@ -190,3 +190,27 @@ test('the Sun as target shows the solar caution', async (t) => {
   await c.waitFor({ state: 'hidden', timeout: 10000 });
   assert.deepEqual(errors, []);
 });
+
+test('drag pans the view, the wheel steps eyepieces, re-centre restores', async (t) => {
+  const { page, server, errors } = await openBrowser(t, DESKTOP);
+  await gotoReady(page, server.url);
+  const start = await canvasBytes(page);
+  const box = await page.locator('#view').boundingBox();
+  const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+  await page.mouse.move(cx, cy);
+  await page.mouse.down();
+  await page.mouse.move(cx + 60, cy + 25, { steps: 5 });
+  await page.mouse.up();
+  await page.waitForTimeout(100);
+  assert.notEqual((await canvasBytes(page)).hash, start.hash, 'the drag moved the view');
+  await page.click('#recentre');
+  assert.deepEqual(await canvasBytes(page), start, 're-centred');
+  const mag = () => page.locator('#figures dt:text-is("Magnification") + dd').textContent();
+  const m0 = await mag();
+  await page.mouse.move(cx, cy);
+  await page.mouse.wheel(0, -120); // wheel up: more power
+  await page.waitForFunction((m) => document.querySelector('#figures').textContent.indexOf(m) < 0, m0);
+  const m1 = await mag();
+  assert.ok(parseFloat(m1) > parseFloat(m0), `${m0} -> ${m1}`);
+  assert.deepEqual(errors, []);
+});
