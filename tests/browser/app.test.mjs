@@ -214,3 +214,25 @@ test('drag pans the view, the wheel steps eyepieces, re-centre restores', async 
   assert.ok(parseFloat(m1) > parseFloat(m0), `${m0} -> ${m1}`);
   assert.deepEqual(errors, []);
 });
+
+test('kit import: a bad file is refused in words and the kit kept; a good one replaces it after asking', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.click('#tab-kit');
+  await page.click('li[data-item="ep-6"] >> text=Remove'); // make the saved kit differ from the demo
+  const before = await savedKit(page);
+  await page.setInputFiles('#kit-import', { name: 'broken.json', mimeType: 'application/json', buffer: Buffer.from('{"schema": 2, "items": [{"id":"x","kind":"eyepiece","focal_mm":-4,"afov_deg":50}], "stations": []}') });
+  await page.waitForFunction(() => !document.getElementById('alert').hidden);
+  assert.match(await page.locator('#alert').textContent(), /broken\.json.*not imported.*allowed 1 to 100.*unchanged/);
+  assert.deepEqual(await savedKit(page), before);
+  const good = { format: 'nightfield-kit', schema: 2, items: [
+    { id: 'b', kind: 'binocular', name: '7×35 binoculars', aperture_mm: 35, magnification: 7, tfov_deg: 8 }],
+    stations: [{ id: 's', name: 'Hand-held', binocular: 'b', eyepieces: [] }] };
+  await page.setInputFiles('#kit-import', { name: 'club.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(good)) });
+  await page.waitForFunction(() => /Imported 1 items/.test(document.getElementById('kit-note').textContent));
+  const after = await savedKit(page);
+  assert.equal(after.items.length, 1);
+  assert.equal(after.stations[0].binocular, 'b');
+  await page.waitForFunction(() => /7×35 binoculars|Hand-held/.test(document.getElementById('view-caption').textContent));
+  assert.deepEqual(errors, []);
+});

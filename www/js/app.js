@@ -8,7 +8,7 @@ import { renderFigures, solarCaution } from './figures.js';
 import { paint, attachGestures } from './view.js';
 import { encodeQr, drawQr } from './qr.js';
 import { loadTiers, showTiers, registerWorker, askPersist } from './offline.js';
-import { zonedToUtcMs, utcToZoned, isValidZone } from './time.js';
+import { zonedToUtcMs, utcToZoned, isValidZone, siteLabel } from './time.js';
 
 const $ = (id) => document.getElementById(id);
 const SESSION_KEY = 'nightfield.session';
@@ -106,6 +106,8 @@ const app = {
     $('solar-caution').hidden = !caution;
     $('solar-caution').textContent = caution || '';
     this.paintAll();
+    const ep = this.currentEyepiece();
+    $('print-summary').textContent = `${this.state.site.name} · ${siteLabel(this.state.utc_ms, this.state.site.tz)} · ${st.name}${ep ? ` · ${ep.name}` : ''} · ${targetLabel(this.state.target)}`;
     renderSite(this);
     this.saveSession();
     if (!$('panel-share').hidden) this.renderShare();
