@@ -107,6 +107,14 @@ impl Catalogs {
         v
     }
 
+    /// Attribution lines of the loaded files plus the compiled-in star names, to show offline.
+    pub fn credits(&self) -> Vec<&'static str> {
+        let mut v: Vec<&'static str> = self.loaded().into_iter().map(credit).collect();
+        v.push(credit("names_iau"));
+        v.dedup();
+        v
+    }
+
     /// A star by id, with the Julian-year epoch of its catalog position.
     pub fn star(&self, id: u32) -> Option<(&Star, f64)> {
         let t = self.tiers.get((id >> TIER_SHIFT) as usize)?.as_ref()?;
