@@ -11,7 +11,7 @@ use core::fmt;
 
 pub(crate) mod bytes;
 mod set;
-pub use set::{credit, normalize_id, Catalogs, DSO_FILE, STAR_TIERS};
+pub use set::{credit, normalize_id, split_star_id, star_id, Catalogs, DSO_FILE, STAR_TIERS};
 use bytes::{crc32, Reader};
 
 /// File magic of a Nightfield star file.
