@@ -363,7 +363,25 @@ def red_v_from_gaia(h, d, pairs):
     hi, gi = hi[ok], gi[ok]
     x = (d["bp"][gi] - d["rp"][gi]).astype(np.float64)
     h["v"][hi] = d["g"][gi].astype(np.float64) - g_minus_v(x)
-    return len(hi)
+    # Red stars without Gaia colours (the brightest, which the package took from
+    # Hipparcos): V = Hp + the median V(Gaia) - Hp of the matched stars in their 0.1-mag
+    # B-V bin (bins with >= 20 stars; beyond the last bin its value).
+    vh = h["v"][hi] - h["hp"][hi]
+    bins = np.floor(h["bv"][hi] * 10).astype(np.int64)
+    table = {}
+    for k in np.unique(bins):
+        m = bins == k
+        if m.sum() >= 20:
+            table[int(k)] = float(np.round(np.median(vh[m]), 4))
+    rest = np.nonzero((h["bv"] > RED_BV) & ~np.isin(np.arange(len(h["hip"])), hi))[0]
+    keys = sorted(table)
+    for i in rest:
+        k = int(np.floor(h["bv"][i] * 10))
+        k = min(max(k, keys[0]), keys[-1])
+        while k not in table:
+            k -= 1
+        h["v"][i] = h["hp"][i] + table[k]
+    return len(hi), len(rest), table
 
 
 def build():
@@ -372,7 +390,7 @@ def build():
     d = load_gaia()
     dup, pairs = match_gaia_to_hip(d, h)
     v_table = h["v"].copy()
-    n_red = red_v_from_gaia(h, d, pairs)
+    n_red, n_red_binned, red_table = red_v_from_gaia(h, d, pairs)
     bright = h["v"] <= BRIGHT_LIMIT_V
     out["stars_bright.nfs"] = hip_file(h, bright, "Hipparcos I/311 V<=6.5", BRIGHT_LIMIT_V)
     out["stars_hip.nfs"] = hip_file(h, ~bright, "Hipparcos I/311 V>6.5", float(np.max(h["v"])))
@@ -395,7 +413,9 @@ def build():
         f"fit on {nfit} matches, median |resid| {mad:.3f} mag",
         f"V(Gaia, Riello 2021) - V(Hipparcos, Bessell 2000) on {len(dv)} matches: "
         f"median {np.median(dv):+.3f}, median |dev| {np.median(np.abs(dv - np.median(dv))):.3f} mag",
-        f"Hipparcos stars with B-V > {RED_BV} given V from their Gaia match: {n_red}",
+        f"Hipparcos stars with B-V > {RED_BV} given V from their Gaia match: {n_red}; "
+        f"from the binned V-Hp of those matches: {n_red_binned}",
+        "V-Hp by B-V bin (red stars): " + ", ".join(f"{k / 10:.1f}:{v:+.3f}" for k, v in sorted(red_table.items()) if k >= 14),
         f"OpenNGC objects: {ndso}; Messier numbers without a record: {missing_m}",
     ]
     return out, notes
