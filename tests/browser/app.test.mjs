@@ -91,12 +91,18 @@ test('share link round trip gives identical canvas pixels', async (t) => {
   assert.match(link, /#s=[A-Za-z0-9_-]+$/);
   assert.equal(readPayload(link.split('#s=')[1]).version, 1);
   const before = await canvasBytes(a.page);
-  // A second, fresh browser (no saved kit) opens the link.
-  const b = await openBrowser(t, DESKTOP);
+  // A second, fresh browser (no saved kit) in another time zone opens the link.
+  const b = await openBrowser(t, { ...DESKTOP, timezoneId: 'America/Denver' });
   const url = link.replace(a.server.url, b.server.url);
   await gotoReady(b.page, url);
   const after = await canvasBytes(b.page);
   assert.deepEqual(after, before);
+  // The site's clock (its own zone), not the device's, is shown.
+  await b.page.click('#tab-site');
+  await a.page.click('#tab-site');
+  assert.equal(await b.page.inputValue('#site-form input[name="time"]'), await a.page.inputValue('#site-form input[name="time"]'));
+  assert.equal(await b.page.inputValue('#site-form input[name="date"]'), await a.page.inputValue('#site-form input[name="date"]'));
+  await a.page.click('#tab-share');
   // The QR code on the page reads back as the link (independent decoder: jsqr).
   const qr = await a.page.evaluate(() => {
     const c = document.getElementById('qr');
