@@ -4,7 +4,6 @@ SHELL := /bin/bash
 .ONESHELL:
 .SHELLFLAGS := -eo pipefail -c
 PORT ?= 8080
-WASM_OUT := target/wasm/wasm32-unknown-unknown/release/nightfield.wasm
 
 .PHONY: serve test wasm data native-test fixtures browser-test bench sizes dist setup-wasm setup-test clean
 
@@ -26,15 +25,15 @@ setup-test:
 wasm: setup-wasm data
 	@. .tools/wasm.env
 	echo "[wasm] building with $$WASM_HOW"
-	CARGO_TARGET_DIR=target/wasm RUSTC_BOOTSTRAP=$$WASM_BOOTSTRAP RUSTC=$$WASM_RUSTC \
+	CARGO_TARGET_DIR=$$WASM_TARGET_DIR RUSTC_BOOTSTRAP=$$WASM_BOOTSTRAP RUSTC=$$WASM_RUSTC \
 	  $$WASM_CARGO build --quiet --release --lib --target wasm32-unknown-unknown $$WASM_FLAGS
-	.tools/bin/wasm-bindgen --target web --out-dir www/pkg $(WASM_OUT)
+	.tools/bin/wasm-bindgen --target web --out-dir www/pkg $$WASM_TARGET_DIR/wasm32-unknown-unknown/release/nightfield.wasm
 	echo "[wasm] www/pkg/nightfield_bg.wasm: $$(stat -c %s www/pkg/nightfield_bg.wasm) bytes"
 
-## Catalog data files the page fetches (built files are committed under catalog/).
+## Catalog data files the page fetches (built files are committed under catalog/; copied, not committed, into www/catalog/).
 data:
-	@mkdir -p www/data
-	for f in catalog/*.bin; do [ -e "$$f" ] && cp -u "$$f" www/data/; done; true
+	@mkdir -p www/catalog
+	for f in catalog/*.nfs catalog/*.nfd catalog/*.bin catalog/*.tsv; do [ -e "$$f" ] && cp -u "$$f" www/catalog/; done; true
 
 native-test:
 	@echo "[test] cargo test (native)"
@@ -62,4 +61,4 @@ dist: wasm
 	@scripts/dist.sh
 
 clean:
-	rm -rf target www/pkg www/data dist
+	rm -rf target www/pkg www/catalog dist

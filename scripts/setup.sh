@@ -44,18 +44,21 @@ setup_wasm() {
   if [ ! -f "$TOOLS/wasm.env" ]; then
     # 1. an already-installed rustup wasm32 target; 2. rustup target add (short timeout: it can hang
     # with no answer on closed networks); 3. Debian's rustc-web with the std source and build-std.
-    if command -v rustup >/dev/null 2>&1 && rustup target list --installed 2>/dev/null | grep -q '^wasm32-unknown-unknown$'; then
-      printf 'WASM_HOW="rustup wasm32 target"\nWASM_CARGO="%s"\nWASM_RUSTC="%s"\nWASM_FLAGS=""\nWASM_BOOTSTRAP=""\n' "$(command -v cargo)" "$(command -v rustc)" > "$TOOLS/wasm.env"
-    elif [ ! -f "$TOOLS/.rustup-target-failed" ] && command -v rustup >/dev/null 2>&1 \
+    if [ "${NIGHTFIELD_WASM_TOOLCHAIN:-}" = debian ]; then
+      say "NIGHTFIELD_WASM_TOOLCHAIN=debian: skipping rustup"; touch "$TOOLS/.rustup-target-failed"
+    fi
+    if [ "${NIGHTFIELD_WASM_TOOLCHAIN:-}" != debian ] && command -v rustup >/dev/null 2>&1 && rustup target list --installed 2>/dev/null | grep -q '^wasm32-unknown-unknown$'; then
+      printf 'WASM_HOW="rustup wasm32 target"\nWASM_CARGO="%s"\nWASM_RUSTC="%s"\nWASM_FLAGS=""\nWASM_BOOTSTRAP=""\nWASM_TARGET_DIR="target/wasm"\n' "$(command -v cargo)" "$(command -v rustc)" > "$TOOLS/wasm.env"
+    elif [ "${NIGHTFIELD_WASM_TOOLCHAIN:-}" != debian ] && [ ! -f "$TOOLS/.rustup-target-failed" ] && command -v rustup >/dev/null 2>&1 \
          && { say "trying: rustup target add wasm32-unknown-unknown (20 s limit)"; timeout 20 rustup target add wasm32-unknown-unknown >/dev/null 2>&1; }; then
-      printf 'WASM_HOW="rustup wasm32 target (just added)"\nWASM_CARGO="%s"\nWASM_RUSTC="%s"\nWASM_FLAGS=""\nWASM_BOOTSTRAP=""\n' "$(command -v cargo)" "$(command -v rustc)" > "$TOOLS/wasm.env"
+      printf 'WASM_HOW="rustup wasm32 target (just added)"\nWASM_CARGO="%s"\nWASM_RUSTC="%s"\nWASM_FLAGS=""\nWASM_BOOTSTRAP=""\nWASM_TARGET_DIR="target/wasm"\n' "$(command -v cargo)" "$(command -v rustc)" > "$TOOLS/wasm.env"
     else
       touch "$TOOLS/.rustup-target-failed"
       say "no rustup wasm32 target here: using Debian's rustc-web with -Zbuild-std"
       if [ ! -x /usr/bin/cargo ] || [ ! -d /usr/lib/rustlib/src/rust ] || [ ! -e /usr/bin/rust-lld ] || ! /usr/bin/rust-lld -flavor wasm --version >/dev/null 2>&1; then
         apt_install rustc-web cargo-web rust-web-src lld-22
       fi
-      printf 'WASM_HOW="Debian rustc-web + build-std"\nWASM_CARGO="/usr/bin/cargo"\nWASM_RUSTC="/usr/bin/rustc"\nWASM_FLAGS="-Zbuild-std=std,panic_abort"\nWASM_BOOTSTRAP="1"\n' > "$TOOLS/wasm.env"
+      printf 'WASM_HOW="Debian rustc-web + build-std"\nWASM_CARGO="/usr/bin/cargo"\nWASM_RUSTC="/usr/bin/rustc"\nWASM_FLAGS="-Zbuild-std=std,panic_abort"\nWASM_BOOTSTRAP="1"\nWASM_TARGET_DIR="target/wasm-debian"\n' > "$TOOLS/wasm.env"
     fi
     # shellcheck disable=SC1091
     . "$TOOLS/wasm.env"

@@ -6,6 +6,7 @@
 //! names the field and its allowed range; nothing downstream panics on a validated
 //! scenario.
 
+use crate::optics::train::Train;
 use serde::{Deserialize, Serialize};
 use std::fmt;
 
@@ -13,8 +14,40 @@ use std::fmt;
 /// refused with a clear message rather than misread.
 pub const SCENARIO_VERSION: u32 = 1;
 
+/// One whole view: what the page stores, what a link carries.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
+pub struct Scenario {
+    pub version: u32,
+    pub site: SiteSpec,
+    /// The instant, UTC, as "YYYY-MM-DDTHH:MM[:SS[.sss]]Z" (the page shows it in the site's zone).
+    pub time_utc: String,
+    /// The page's kit (items and stations), carried whole so a link restores it;
+    /// the engine reads only `train` and `stations`.
+    #[serde(default)]
+    pub kit: serde_json::Value,
+    /// Index of the chosen station and eyepiece in the kit (for the page).
+    #[serde(default)]
+    pub station: usize,
+    #[serde(default)]
+    pub eyepiece: usize,
+    /// The chosen optical train, resolved by the page from the kit.
+    pub train: Option<Train>,
+    /// Every station's trains (one per eyepiece), for the night plan.
+    #[serde(default)]
+    pub stations: Vec<StationSpec>,
+    pub target: TargetSpec,
+    #[serde(default)]
+    pub view: ViewSpec,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct StationSpec {
+    #[serde(default)]
+    pub name: String,
+    pub trains: Vec<Train>,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct SiteSpec {
     #[serde(default)]
     pub name: String,
@@ -22,51 +55,54 @@ pub struct SiteSpec {
     pub lon_deg: f64,
     #[serde(default)]
     pub elev_m: f64,
-    /// IANA zone name of the site (the page turns it into an offset with Intl).
+    /// IANA zone name of the site (the page turns it into local times with Intl).
     #[serde(default)]
-    pub time_zone: String,
+    pub tz: String,
+    /// Event hours in the site's civil time, "HH:MM" (the page's plan uses them).
+    #[serde(default)]
+    pub event_start: String,
+    #[serde(default)]
+    pub event_end: String,
 }
 
-/// The instant of the view as the site's civil time plus the site's UTC offset at
-/// that moment (the page computes the offset from the site's zone).
+/// What to point at: a name the search resolves ("M42", "Vega", "Jupiter"), or a direction.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct TimeSpec {
-    /// "YYYY-MM-DDTHH:MM" or "YYYY-MM-DDTHH:MM:SS", site civil time.
-    pub local: String,
-    /// Minutes east of UTC (e.g. +60 for UTC+1).
-    pub utc_offset_min: i32,
-}
-
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "by", rename_all = "snake_case", deny_unknown_fields)]
+#[serde(untagged)]
 pub enum TargetSpec {
-    /// A name the search resolves: "M42", "NGC 7000", "Vega", "Jupiter", ...
-    Name { name: String },
-    /// A direction (ICRS, degrees).
+    Name(String),
     Coordinates { ra_deg: f64, dec_deg: f64 },
 }
 
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default, deny_unknown_fields)]
+#[serde(default)]
 pub struct ViewSpec {
     /// Show the field as a chart would (north up, east left) instead of as the train shows it.
     pub north_up: bool,
     /// Red-only rendering for dark adaptation.
     pub night: bool,
+    /// Draw text labels (names, directions).
+    pub labels: bool,
+    /// Side-by-side compare (the page's switch).
+    pub compare: bool,
     /// Zenith sky brightness in V mag/arcsec² (darker sky = larger number).
     pub sky_mag_arcsec2: f64,
     /// Pan of the view centre from the target, arcminutes (east, north).
     pub pan_arcmin: [f64; 2],
     /// Extra rotation the volunteer gave the diagonal/eyepiece/camera, degrees.
     pub rotation_deg: f64,
-    /// Draw text labels (names, directions).
-    pub labels: bool,
 }
 
 impl Default for ViewSpec {
     fn default() -> Self {
-        ViewSpec { north_up: false, night: false, sky_mag_arcsec2: 20.5, pan_arcmin: [0.0, 0.0], rotation_deg: 0.0, labels: true }
+        ViewSpec {
+            north_up: false,
+            night: false,
+            labels: true,
+            compare: false,
+            sky_mag_arcsec2: 20.5,
+            pan_arcmin: [0.0, 0.0],
+            rotation_deg: 0.0,
+        }
     }
 }
 
@@ -124,6 +160,7 @@ pub struct CivilTime {
 pub fn parse_civil(field: &'static str, text: &str) -> Result<CivilTime, ScenarioError> {
     let bad = || ScenarioError::BadTime { field, text: text.chars().take(40).collect() };
     let t = text.trim();
+    let t = t.strip_suffix('Z').unwrap_or(t);
     let (date, clock) = t.split_once(['T', ' ']).ok_or_else(bad)?;
     let d: Vec<&str> = date.split('-').collect();
     let c: Vec<&str> = clock.split(':').collect();
@@ -161,4 +198,48 @@ pub fn parse_civil(field: &'static str, text: &str) -> Result<CivilTime, Scenari
         return Err(bad());
     }
     Ok(CivilTime { year, month, day, hour, minute, second })
+}
+
+impl Scenario {
+    /// Reads a scenario from JSON text, refusing newer formats with a clear message.
+    pub fn from_json(text: &str) -> Result<Scenario, ScenarioError> {
+        let v: serde_json::Value = serde_json::from_str(text).map_err(|e| ScenarioError::Json(e.to_string()))?;
+        Scenario::from_value(v)
+    }
+
+    pub fn from_value(v: serde_json::Value) -> Result<Scenario, ScenarioError> {
+        if let Some(found) = v.get("version").and_then(|x| x.as_u64()) {
+            if found > SCENARIO_VERSION as u64 {
+                return Err(ScenarioError::FutureVersion { found: found.min(u32::MAX as u64) as u32, supported: SCENARIO_VERSION });
+            }
+        }
+        let s: Scenario = serde_json::from_value(v).map_err(|e| ScenarioError::Json(e.to_string()))?;
+        s.validate()?;
+        Ok(s)
+    }
+
+    /// Checks every number a user or a link can set; names the field and its range.
+    pub fn validate(&self) -> Result<(), ScenarioError> {
+        if self.version == 0 || self.version > SCENARIO_VERSION {
+            return Err(ScenarioError::FutureVersion { found: self.version, supported: SCENARIO_VERSION });
+        }
+        check_range("site latitude (degrees)", self.site.lat_deg, -90.0, 90.0)?;
+        check_range("site longitude (degrees)", self.site.lon_deg, -180.0, 180.0)?;
+        check_range("site elevation (metres)", self.site.elev_m, -500.0, 9000.0)?;
+        parse_civil("time", &self.time_utc)?;
+        if let TargetSpec::Coordinates { ra_deg, dec_deg } = self.target {
+            check_range("target right ascension (degrees)", ra_deg, 0.0, 360.0)?;
+            check_range("target declination (degrees)", dec_deg, -90.0, 90.0)?;
+        }
+        if let TargetSpec::Name(n) = &self.target {
+            if n.trim().is_empty() {
+                return Err(ScenarioError::Missing { field: "target" });
+            }
+        }
+        check_range("sky brightness (mag/arcsec²)", self.view.sky_mag_arcsec2, 14.0, 22.5)?;
+        check_range("view pan east (arcminutes)", self.view.pan_arcmin[0], -6000.0, 6000.0)?;
+        check_range("view pan north (arcminutes)", self.view.pan_arcmin[1], -6000.0, 6000.0)?;
+        check_range("view rotation (degrees)", self.view.rotation_deg, -360.0, 360.0)?;
+        Ok(())
+    }
 }
