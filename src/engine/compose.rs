@@ -12,7 +12,7 @@ use crate::orient::{self, MountState, SkyToScreen};
 use crate::scenario::{parse_civil, Scenario, TargetSpec};
 use crate::scene::{BodyLook, DsoLook, FieldShape, LabelKind, Rings, Scene, SceneBody};
 use crate::sky::apparent::{aberrate, astrometric_direction, deflect_by_sun, CatalogPlace};
-use crate::sky::catalog::set::Catalogs;
+use crate::sky::catalog::Catalogs;
 use crate::sky::dso::DsoKind;
 use crate::sky::earth_ephem::{earth_state, EarthState};
 use crate::sky::frames::{npb_matrix, ra_dec_of, unit_vector};
@@ -130,10 +130,10 @@ fn dso_look(k: DsoKind) -> DsoLook {
     use DsoKind::*;
     match k {
         Galaxy | GalaxyPair | GalaxyTriplet | GalaxyGroup => DsoLook::Galaxy,
-        EmissionNebula | ReflectionNebula | Nebula | HiiRegion | SupernovaRemnant | ClusterWithNebula => DsoLook::Nebula,
+        EmissionNebula | ReflectionNebula | Nebula | HiiRegion | SupernovaRemnant | ClusterNebula => DsoLook::Nebula,
         PlanetaryNebula => DsoLook::PlanetaryNebula,
         GlobularCluster => DsoLook::GlobularCluster,
-        OpenCluster | Association | StarCloud => DsoLook::OpenCluster,
+        OpenCluster | Association => DsoLook::OpenCluster,
         DarkNebula => DsoLook::DarkNebula,
         _ => DsoLook::Other,
     }
@@ -187,16 +187,13 @@ pub fn aim(
             }
             TargetRef::Dso(id) => {
                 let d = cats.dso(id).ok_or_else(|| EngineError::Target(format!("\"{name}\" is not loaded yet")))?;
-                let label = match &d.common_name {
-                    Some(c) if !c.is_empty() => format!("{} ({})", d.designation(), c),
-                    _ => d.designation(),
-                };
+                let label = dso_title(d);
                 Ok(Aim {
                     name: label,
                     kind: d.kind.words().to_string(),
                     apparent: frame.fixed(Equatorial { ra_rad: d.ra_rad, dec_rad: d.dec_rad }),
                     body: None,
-                    size_rad: (d.major_arcmin as f64 / 60.0).to_radians(),
+                    size_rad: 2.0 * d.radius_rad(),
                     vmag: d.vmag.map(|v| v as f64),
                     dso: Some(id),
                 })
@@ -216,6 +213,14 @@ pub fn aim(
                 })
             }
         },
+    }
+}
+
+/// "M 42 (Orion Nebula)", "NGC 7000 (North America Nebula)", "IC 434".
+pub fn dso_title(d: &crate::sky::dso::Dso) -> String {
+    match d.common_names.first() {
+        Some(c) if !c.is_empty() => format!("{} ({})", d.designation(), c),
+        _ => d.designation(),
     }
 }
 
@@ -270,13 +275,13 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         mount: Default::default(),
     });
     let sky_mu = s.view.sky_mag_arcsec2;
-    let cond = Conditions { naked_eye_limit_mag: crate::plan::visibility::naked_eye_limit_mag(sky_mu, 1.0), ..Conditions::default() };
+    let cond = Conditions::default();
     let optics = figures_for(&train, &cond).map_err(|e| EngineError::Optics(e.to_string()))?;
 
     let horizontal = to_horizontal(aim.apparent, &site, &t);
     let ha = hour_angle_rad(aim.apparent.ra_rad, site.lon_rad, &t);
     let q = parallactic_angle_rad(ha, aim.apparent.dec_rad, site.lat_rad);
-    let state = MountState { parallactic_rad: q, alt_rad: horizontal.alt_rad, pier_side: None, user_rotation_rad: s.view.rotation_deg.to_radians() };
+    let state = MountState { parallactic_rad: q, alt_rad: horizontal.alt_rad, pier_side: None, user_rotation_rad: s.view.rotation_deg.to_radians(), dec_rad: Some(aim.apparent.dec_rad) };
     let view = orient::orientation(&train, &state).map_err(|e| EngineError::Optics(e.to_string()))?;
     let shown: SkyToScreen = if s.view.north_up { SkyToScreen::chart() } else { view };
     let orientation = orient::describe(&view, q);
@@ -306,8 +311,9 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
     for id in cats.dsos_overlapping(icrs_center, reach) {
         if let Some(d) = cats.dso(id) {
             let p = frame.fixed(Equatorial { ra_rad: d.ra_rad, dec_rad: d.dec_rad });
-            let major = (d.major_arcmin as f64 / 60.0).to_radians() / 2.0;
-            let minor = (d.minor_arcmin.unwrap_or(d.major_arcmin) as f64 / 60.0).to_radians() / 2.0;
+            let Some(major_arcmin) = d.major_arcmin else { continue };
+            let major = (major_arcmin as f64 / 60.0).to_radians() / 2.0;
+            let minor = (d.minor_arcmin.unwrap_or(major_arcmin) as f64 / 60.0).to_radians() / 2.0;
             let sb = d.surf_br_mag_arcsec2.unwrap_or(22.0);
             let label = if s.view.labels { Some(d.designation()) } else { None };
             scene.add_dso(p, major.max(1e-6), minor.max(1e-6), d.pa_deg.unwrap_or(0.0).to_radians() as f64, dso_look(d.kind), sb, label.as_deref());

@@ -4,7 +4,7 @@ use super::compose::{body_title, Composed};
 use super::EngineError;
 use crate::optics::figures::Figures;
 use crate::scenario::Scenario;
-use crate::sky::catalog::set::Catalogs;
+use crate::sky::catalog::Catalogs;
 use crate::sky::search::{resolve as search, TargetRef};
 use crate::solar::ephemeris::Ephemeris;
 use crate::solar::BodyId;
@@ -123,10 +123,7 @@ pub fn resolve(cats: &Catalogs, eph: Option<&Ephemeris>, s: Option<&Scenario>, q
             let d = cats.dso(id).ok_or_else(|| EngineError::Target(format!("\"{query}\" is not loaded yet")))?;
             Resolved {
                 query: query.into(),
-                name: match &d.common_name {
-                    Some(c) if !c.is_empty() => format!("{} ({})", d.designation(), c),
-                    _ => d.designation(),
-                },
+                name: super::compose::dso_title(d),
                 kind: d.kind.words().into(),
                 ra_deg: Some(d.ra_rad.to_degrees()),
                 dec_deg: Some(d.dec_rad.to_degrees()),

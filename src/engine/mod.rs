@@ -10,7 +10,7 @@ pub mod figures;
 
 use crate::render::{self, Frame, Label, ViewParams};
 use crate::scenario::{Scenario, ScenarioError};
-use crate::sky::catalog::set::Catalogs;
+use crate::sky::catalog::Catalogs;
 use crate::solar::ephemeris::Ephemeris;
 use compose::Composed;
 pub use figures::ViewFigures;
