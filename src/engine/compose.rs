@@ -10,12 +10,11 @@ use crate::optics::figures::{figures_for, Conditions, Figures};
 use crate::optics::train::{Accessory, Instrument, NakedEye, Train};
 use crate::orient::{self, MountState, SkyToScreen};
 use crate::scenario::{parse_civil, Scenario, TargetSpec};
-use crate::scene::{BodyLook, DsoLook, FieldShape, LabelKind, Rings, Scene, SceneBody};
-use crate::sky::apparent::{aberrate, astrometric_direction, deflect_by_sun, CatalogPlace};
+use crate::scene::{DsoLook, LabelKind, Scene};
+use crate::sky::apparent::{ApparentContext, CatalogPlace};
 use crate::sky::catalog::Catalogs;
 use crate::sky::dso::DsoKind;
-use crate::sky::earth_ephem::{earth_state, EarthState};
-use crate::sky::frames::{npb_matrix, ra_dec_of, unit_vector};
+use crate::sky::frames::{ra_dec_of, unit_vector};
 use crate::sky::horizon::{hour_angle_rad, parallactic_angle_rad, site_from_deg, to_horizontal};
 use crate::sky::search::{resolve, TargetRef};
 use crate::sky::{Equatorial, Horizontal, Site};
@@ -23,50 +22,41 @@ use crate::solar::ephemeris::Ephemeris;
 use crate::solar::state::BodyState;
 use crate::solar::BodyId;
 use crate::time::Instant;
-use glam::{DMat3, DVec2, DVec3};
+use glam::DVec2;
 
 /// Deepest star drawn, whatever the optics: the catalogs end about here.
 pub const CATALOG_FLOOR_MAG: f32 = 12.0;
 
-/// ICRS → apparent of date for distant sources, set up once per scenario
-/// (ERFA-style: space motion, light deflection by the Sun, aberration, NPB).
+/// ICRS → apparent place of date at the site, set up once per scenario
+/// (the sky core's `ApparentContext`: space motion, deflection, aberration, NPB).
 pub struct ApparentFrame {
-    earth: EarthState,
-    npb: DMat3,
-    tt_jd: f64,
+    ctx: ApparentContext,
 }
 
 impl ApparentFrame {
-    pub fn new(t: &Instant) -> Self {
-        ApparentFrame { earth: earth_state(t.tt_jd), npb: npb_matrix(t.tt_jd), tt_jd: t.tt_jd }
+    pub fn new(t: &Instant, site: &Site) -> Self {
+        ApparentFrame { ctx: ApparentContext::at_site(t, site) }
     }
 
-    fn finish(&self, p: DVec3) -> Equatorial {
-        let em = self.earth.helio_pos_au.length();
-        let e = self.earth.helio_pos_au / em;
-        let dlim = 1e-6 / (em * em).max(1.0);
-        let d = deflect_by_sun(p, p, e, em, dlim).normalize();
-        let a = aberrate(d, self.earth.bary_vel_au_day, em);
-        let (ra_rad, dec_rad) = ra_dec_of(self.npb * a);
-        Equatorial { ra_rad, dec_rad }
+    pub fn context(&self) -> &ApparentContext {
+        &self.ctx
     }
 
     /// A catalog star (epoch `epoch_jyear`) → apparent place of date.
     pub fn star(&self, place: &CatalogPlace, epoch_jyear: f64) -> Equatorial {
-        self.finish(astrometric_direction(place, epoch_jyear, self.tt_jd, self.earth.bary_pos_au))
+        self.ctx.place(place, epoch_jyear)
     }
 
     /// A fixed ICRS direction (deep-sky object, typed coordinates) → apparent of date.
     pub fn fixed(&self, p: Equatorial) -> Equatorial {
-        self.finish(unit_vector(p.ra_rad, p.dec_rad))
+        let (ra_rad, dec_rad) = ra_dec_of(self.ctx.direction(unit_vector(p.ra_rad, p.dec_rad)));
+        Equatorial { ra_rad, dec_rad }
     }
 
-    /// Apparent of date → ICRS direction (for catalog cone queries; aberration
-    /// undone to first order, which is far inside the query margin).
+    /// Apparent of date → ICRS direction, for catalog cone queries (aberration,
+    /// ≤ 21″, is left in: far inside the query margin).
     pub fn to_icrs(&self, p: Equatorial) -> Equatorial {
-        let v = self.npb.transpose() * unit_vector(p.ra_rad, p.dec_rad);
-        let v = (v - self.earth.bary_vel_au_day / crate::sky::apparent::C_AU_DAY).normalize();
-        let (ra_rad, dec_rad) = ra_dec_of(v);
+        let (ra_rad, dec_rad) = ra_dec_of(self.ctx.npb.transpose() * unit_vector(p.ra_rad, p.dec_rad));
         Equatorial { ra_rad, dec_rad }
     }
 }
@@ -112,20 +102,6 @@ pub fn site_of(s: &Scenario) -> Result<Site, EngineError> {
     site_from_deg(s.site.lat_deg, s.site.lon_deg, s.site.elev_m).map_err(|e| EngineError::Site(e.to_string()))
 }
 
-fn body_look(b: BodyId) -> BodyLook {
-    match b {
-        BodyId::Sun => BodyLook::Sun,
-        BodyId::Moon => BodyLook::Moon,
-        BodyId::Mercury => BodyLook::Mercury,
-        BodyId::Venus => BodyLook::Venus,
-        BodyId::Mars => BodyLook::Mars,
-        BodyId::Jupiter => BodyLook::Jupiter,
-        BodyId::Saturn => BodyLook::Saturn,
-        BodyId::Uranus => BodyLook::Uranus,
-        BodyId::Neptune => BodyLook::Neptune,
-    }
-}
-
 fn dso_look(k: DsoKind) -> DsoLook {
     use DsoKind::*;
     match k {
@@ -137,11 +113,6 @@ fn dso_look(k: DsoKind) -> DsoLook {
         DarkNebula => DsoLook::DarkNebula,
         _ => DsoLook::Other,
     }
-}
-
-/// Unit tangent-plane vector (east, north) of a position angle (north through east).
-fn pa_dir(pa_rad: f64) -> DVec2 {
-    DVec2::new(libm::sin(pa_rad), libm::cos(pa_rad))
 }
 
 /// Angular separation (haversine form, stable for small angles).
@@ -249,23 +220,11 @@ fn place_of(star: &crate::sky::catalog::Star) -> CatalogPlace {
     }
 }
 
-/// The field edge the train gives: the eyepiece's field stop circle, or the sensor.
-fn field_shape(train: &Train, fig: &Figures) -> FieldShape {
-    for a in train.accessories.iter().rev() {
-        if let Accessory::Camera(c) = a {
-            if let Some(sf) = fig.sensor_field {
-                return FieldShape::Sensor { width_rad: sf.width_rad, height_rad: sf.height_rad, rotation_rad: c.rotation_deg.to_radians() };
-            }
-        }
-    }
-    FieldShape::Circle { radius_rad: fig.true_field_rad / 2.0 }
-}
-
 /// Builds the scene and the numbers beside it for a validated scenario.
 pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result<Composed, EngineError> {
     let t = instant_of(s)?;
     let site = site_of(s)?;
-    let frame = ApparentFrame::new(&t);
+    let frame = ApparentFrame::new(&t, &site);
     let aim = aim(s, cats, eph, &frame, &t, &site)?;
 
     let train = s.train.clone().unwrap_or_else(|| Train {
@@ -291,7 +250,13 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
     let center = if pan == DVec2::ZERO { aim.apparent } else { crate::scene::gnomonic_inverse(aim.apparent, pan) };
 
     let mag_limit = (optics.limiting_mag as f32).min(CATALOG_FLOOR_MAG);
-    let mut scene = Scene::new(center, field_shape(&train, &optics), shown, mag_limit);
+    let sensor_rotation_rad = train
+        .accessories
+        .iter()
+        .find_map(|a| if let Accessory::Camera(c) = a { Some(c.rotation_deg.to_radians()) } else { None })
+        .unwrap_or(0.0);
+    let mut scene = Scene::for_figures(center, &optics, shown, sensor_rotation_rad);
+    scene.mag_limit = mag_limit;
 
     // Stars: cone query in the catalog frame, each star to its apparent place.
     let reach = scene.field_reach_rad() * 1.05 + 2e-4;
@@ -320,47 +285,51 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         }
     }
 
-    // The Sun, the Moon and the planets.
+    // The Sun, the Moon and the planets (with phases, rings and Jupiter's moons).
     let mut bodies = Vec::new();
     let (mut sun_alt_rad, mut sun_separation_rad, mut moon_alt_rad) = (None, None, None);
+    let mut moon_nl = 0.0;
     if let Some(eph) = eph {
+        for b in BodyId::ALL {
+            scene.add_solar_body(eph, b, &t, &site).map_err(|e| EngineError::Solar(e.to_string()))?;
+        }
         if let Ok(all) = crate::solar::topocentric::all_bodies(eph, &t, &site) {
             for st in all.iter() {
                 let h = to_horizontal(st.topocentric, &site, &t);
-                if st.body == BodyId::Sun {
-                    sun_alt_rad = Some(h.alt_rad);
-                    sun_separation_rad = Some(separation_rad(st.topocentric, aim.apparent));
+                match st.body {
+                    BodyId::Sun => {
+                        sun_alt_rad = Some(h.alt_rad);
+                        sun_separation_rad = Some(separation_rad(st.topocentric, aim.apparent));
+                    }
+                    BodyId::Moon => {
+                        moon_alt_rad = Some(h.alt_rad);
+                        if h.alt_rad > 0.0 {
+                            let half_pi = std::f64::consts::FRAC_PI_2;
+                            moon_nl = crate::scene::skylight::moonlight_nl(
+                                st.phase_angle_rad,
+                                separation_rad(st.topocentric, aim.apparent),
+                                half_pi - h.alt_rad,
+                                (half_pi - horizontal.alt_rad).max(0.0),
+                                crate::scene::compose::MOONLIGHT_K_MAG,
+                            );
+                        }
+                    }
+                    _ => {}
                 }
-                if st.body == BodyId::Moon {
-                    moon_alt_rad = Some(h.alt_rad);
+                if s.view.labels && st.body != BodyId::Sun && scene.in_field(crate::scene::gnomonic(scene.center, st.topocentric).unwrap_or(DVec2::splat(9.0)), 0.0) {
+                    scene.add_label(st.topocentric, body_title(st.body), LabelKind::Body);
                 }
-                add_body(&mut scene, eph, st, &t, &site, s.view.labels);
             }
             bodies.extend_from_slice(&all);
         }
     }
 
-    scene.markers.zenith_dir = Some(pa_dir(q));
-    scene.set_sidereal_drift();
-    scene.sky.sky_mag_arcsec2 = sky_mu;
-    if let Some(ep) = optics.exit_pupil_mm {
-        scene.sky.dimming_mag = crate::scene::skylight::exit_pupil_dimming_mag(ep, cond.eye_pupil_mm);
+    scene.set_zenith(q);
+    let driven = matches!(train.mount, crate::optics::train::Mount::Equatorial { .. });
+    if !driven {
+        scene.set_sidereal_drift();
     }
-    if let (Some(malt), Some(moon)) = (moon_alt_rad, bodies.iter().find(|b| b.body == BodyId::Moon)) {
-        if malt > 0.0 && horizontal.alt_rad > 0.0 {
-            let sep = separation_rad(moon.topocentric, aim.apparent);
-            let nl = crate::scene::skylight::moonlight_nl(
-                moon.phase_angle_rad,
-                sep,
-                std::f64::consts::FRAC_PI_2 - malt,
-                std::f64::consts::FRAC_PI_2 - horizontal.alt_rad,
-                0.2,
-            );
-            let (mu, share) = crate::scene::skylight::sky_with_moon(sky_mu, nl);
-            scene.sky.sky_mag_arcsec2 = mu;
-            scene.sky.moon_share = share;
-        }
-    }
+    scene.set_sky(sky_mu, moon_nl, optics.exit_pupil_mm, cond.eye_pupil_mm);
     if s.view.labels {
         scene.add_label(aim.apparent, &aim.name, LabelKind::Target);
     }
@@ -380,73 +349,4 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         moon_alt_rad,
         mag_limit,
     })
-}
-
-/// Puts a body (and Jupiter's moons, Saturn's rings) into the scene if it is in the field.
-fn add_body(scene: &mut Scene, eph: &Ephemeris, st: &BodyState, t: &Instant, site: &Site, labels: bool) {
-    let Some(off) = crate::scene::gnomonic(scene.center, st.topocentric) else { return };
-    let radius_rad = (st.diameter_arcsec / 7200.0).to_radians();
-    if !scene.in_field(off, radius_rad * 1.2 + (10.0f64 / 60.0).to_radians().min(scene.field_reach_rad())) {
-        return;
-    }
-    let mut pole_dir = DVec2::Y;
-    let mut rings = None;
-    let mut polar_ratio = 1.0;
-    let apparent = crate::solar::topocentric::apparent_place(eph, st.body, t, site).ok();
-    if let Some(a) = apparent.as_ref() {
-        if let Some(pole) = crate::solar::physical::pole_icrf(st.body, a.tdb_jd) {
-            let pa = crate::solar::physical::position_angle_rad(a.dir_gcrs, pole, a.pole_of_date());
-            pole_dir = pa_dir(pa);
-        }
-        if st.body == BodyId::Saturn {
-            let g = crate::solar::saturn::saturn_rings(a);
-            pole_dir = pa_dir(g.axis_pa_rad);
-            rings = Some(Rings { tilt_rad: g.earth_tilt_rad });
-        }
-        if st.body == BodyId::Jupiter {
-            polar_ratio = 0.935;
-        }
-        if st.body == BodyId::Saturn {
-            polar_ratio = 0.90;
-        }
-    }
-    scene.bodies.push(SceneBody {
-        look: body_look(st.body),
-        offset: off,
-        radius_rad,
-        polar_ratio,
-        pole_dir,
-        bright_limb_dir: pa_dir(st.bright_limb_pa_rad),
-        phase_angle_rad: st.phase_angle_rad,
-        vmag: st.vmag as f32,
-        rings,
-    });
-    if labels {
-        scene.add_label(st.topocentric, body_title(st.body), LabelKind::Body);
-    }
-    if st.body == BodyId::Jupiter {
-        if let Some(a) = apparent.as_ref() {
-            if let Ok(moons) = crate::solar::jupiter::galilean_moons_for(eph, a, t.tt_jd) {
-                let r_j = radius_rad;
-                for (i, m) in moons.iter().enumerate() {
-                    let moff = off + DVec2::new(m.east, m.north) * r_j;
-                    scene.bodies.push(SceneBody {
-                        look: BodyLook::Satellite,
-                        offset: moff,
-                        radius_rad: r_j * 0.03,
-                        polar_ratio: 1.0,
-                        pole_dir: DVec2::Y,
-                        bright_limb_dir: DVec2::Y,
-                        phase_angle_rad: 0.0,
-                        vmag: 5.5,
-                        rings: None,
-                    });
-                    if labels {
-                        let p = crate::scene::gnomonic_inverse(scene.center, moff);
-                        scene.add_label(p, crate::solar::jupiter::MOON_NAMES[i], LabelKind::Satellite);
-                    }
-                }
-            }
-        }
-    }
 }
