@@ -105,7 +105,7 @@ fn vega_to_m13_with_binoculars() {
     let f = Finder::new(FinderSpec { kind: FinderKind::Binoculars, aperture_mm: 50.0, magnification: 10.0, true_field_deg: 6.5 }).unwrap();
     let limit = f.limiting_mag(5.5, 7.0).unwrap();
     let start = find_hip(stars, hip_of("Vega")).unwrap();
-    let rules = HopRules { edge_margin: 0.3, visibility_margin_mag: 1.0 };
+    let rules = HopRules { edge_margin: 0.3, visibility_margin_mag: 1.0, faintness_penalty: 0.1 };
     let r = plan_route(stars, start, "Vega", M13, "M13", &f, limit, UpReference::North, &rules).unwrap();
     check_rules(&r, stars, start, M13, &f, limit, rules.edge_margin);
 }
@@ -129,4 +129,47 @@ fn bench_route_search_native() {
         "route search Arcturus→M3 over {} stars ({} in the corridor, {} hops): median {:.2} ms, min {:.2} ms",
         stars.len(), r.stars_considered, r.hop_count, times[times.len() / 2], times[0]
     );
+}
+
+/// A whole card for M13 from an invented site on a June night: the route's
+/// hop directions "relative to the zenith" (catalog frame + zenith carried
+/// back by NPB) agree with the directions between the same points in alt/az
+/// computed by the sky core (a frame-invariant angle): within 0.1°.
+#[test]
+fn m13_card_on_a_june_night() {
+    use nightfield::find::card::*;
+    use nightfield::find::circles::{AzimuthReference, DialSense};
+    use nightfield::find::words::{compass_point_16, direction_words};
+    use nightfield::sky::apparent::{star_apparent, CatalogPlace};
+    use nightfield::sky::horizon::{site_from_deg, to_horizontal};
+    use nightfield::time::Instant;
+    let stars = deep();
+    let site = site_from_deg(50.5, 8.25, 200.0).unwrap();
+    let t = Instant::from_civil(2026, 6, 15, 23, 30, 0.0, 120).unwrap();
+    let place = |p: Equatorial| CatalogPlace { ra_rad: p.ra_rad, dec_rad: p.dec_rad, pm_ra_cosdec_mas_yr: 0.0, pm_dec_mas_yr: 0.0, parallax_mas: 0.0, rv_km_s: 0.0 };
+    let app = star_apparent(&place(M13), 2000.0, &t);
+    let f = bench_finder().unwrap();
+    let req = CardRequest {
+        site, t, target_label: "M13", target_apparent: app, finder: &f, main_true_field_rad: 0.8f64.to_radians(),
+        naked_eye_limit_mag: 5.5, stars, landmarks: &[], start: Some(find_hip(stars, hip_of("Vega")).unwrap()),
+        auto_start_max_vmag: 3.0, hop_rules: HopRules::default(), azimuth_reference: AzimuthReference::TrueNorth,
+        dial_sense: DialSense::Clockwise, name_of: &name_of,
+    };
+    let card = find_card(&req).unwrap();
+    let hz = to_horizontal(app, &site, &t);
+    assert!(hz.alt_rad > 0.5, "M13 is high on a June night from 50°N");
+    assert_eq!(card.pointing.compass, compass_point_16(hz.az_rad));
+    assert!((card.dials.az_dial_deg - card.pointing.az_deg).abs() < 1e-9);
+    let r = card.route.as_ref().unwrap();
+    assert_eq!(r.points[0].label, "Vega");
+    check_rules(r, stars, req.start.unwrap(), r.points.last().unwrap().pos, &f, card.finder_view.limiting_mag, 0.2);
+    for s in &r.steps {
+        let h = |k: usize| to_horizontal(star_apparent(&place(r.points[k].pos), 2000.0, &t), &site, &t);
+        let (cw, _) = direction_words(h(s.from), h(s.to));
+        let diff = ((s.direction_from_up_deg + cw) % 360.0 + 360.0) % 360.0;
+        assert!(diff.min(360.0 - diff) < 0.1, "step {}: ccw {} vs cw {}", s.from, s.direction_from_up_deg, cw);
+    }
+    for l in &r.legs { println!("{}", l.sentence); }
+    for s in &r.steps { println!("  {}", s.sentence); }
+    println!("{}", card.pointing.sentence);
 }

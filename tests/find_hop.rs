@@ -48,14 +48,15 @@ fn check_route(stars: &[HopStar], start: usize, target: Equatorial, f: &Finder, 
     }
 }
 
-/// Independent check: breadth-first search for the fewest hops over the same
-/// visible stars (all pairs, no grid), then the least length among those.
+/// Independent check: layered relaxation over ALL pairs of the same visible
+/// stars (no grid, no corridor): the fewest hops, and among those the least
+/// cost, where landing on a star adds 0.1·hop·max(0, V − (limit − 3)).
 fn brute(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_limit: f64) -> Option<(usize, f64)> {
-    let mut pts: Vec<Equatorial> = vec![stars[start].pos()];
-    pts.extend(stars.iter().enumerate().filter(|(i, s)| *i != start && (s.vmag as f64) <= star_limit).map(|(_, s)| s.pos()));
-    pts.push(target);
+    let mut pts: Vec<(Equatorial, f64)> = vec![(stars[start].pos(), 0.0)];
+    pts.extend(stars.iter().enumerate().filter(|(i, s)| *i != start && (s.vmag as f64) <= star_limit)
+        .map(|(_, s)| (s.pos(), 0.1 * hop * ((s.vmag as f64) - (star_limit - 3.0)).max(0.0))));
+    pts.push((target, 0.0));
     let n = pts.len();
-    // Bellman-Ford style layers: best length reaching each node in exactly k hops.
     let mut cur = vec![f64::INFINITY; n];
     cur[0] = 0.0;
     for k in 1..n {
@@ -63,9 +64,9 @@ fn brute(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_lim
         for i in 0..n {
             if cur[i].is_finite() {
                 for j in 0..n {
-                    let d = sep_rad(pts[i], pts[j]);
-                    if i != j && d <= hop && cur[i] + d < next[j] {
-                        next[j] = cur[i] + d;
+                    let d = sep_rad(pts[i].0, pts[j].0);
+                    if i != j && d <= hop && cur[i] + d + pts[j].1 < next[j] {
+                        next[j] = cur[i] + d + pts[j].1;
                     }
                 }
             }
@@ -90,7 +91,8 @@ fn route_is_valid_and_shortest() {
     check_route(&stars, start, target, &f, limit, &r);
     let (k, len) = brute(&stars, start, target, r.max_hop_rad, r.star_limit_mag).unwrap();
     assert_eq!(r.hop_count, k);
-    assert!((r.total_rad - len).abs() < 1e-9, "{} vs {}", r.total_rad, len);
+    assert!((r.cost_rad - len).abs() < 1e-9, "{} vs {}", r.cost_rad, len);
+    assert!(r.total_rad <= r.cost_rad + 1e-15);
     assert!(r.steps[0].sentence.starts_with("Step 1: from the start star, move "), "{}", r.steps[0].sentence);
     assert!(r.steps.last().unwrap().lands_on.starts_with("the target"));
 }
@@ -153,7 +155,7 @@ proptest! {
         let f = finder();
         let limit = f.limiting_mag(5.5, 7.0).unwrap();
         let target = eq(ra + tra / dec.to_radians().cos(), dec + tdec);
-        let rules = HopRules { edge_margin: margin, visibility_margin_mag: 0.5 };
+        let rules = HopRules { edge_margin: margin, visibility_margin_mag: 0.5, faintness_penalty: 0.1 };
         let start = choose_start(&stars, eq(ra - 3.0, dec), 5.0, 8f64.to_radians());
         prop_assume!(start.is_some());
         let start = start.unwrap();
@@ -168,7 +170,7 @@ proptest! {
                 }
                 let (k, len) = brute(&stars, start, target, r.max_hop_rad, r.star_limit_mag).unwrap();
                 prop_assert_eq!(r.hop_count, k);
-                prop_assert!((r.total_rad - len).abs() < 1e-9);
+                prop_assert!((r.cost_rad - len).abs() < 1e-9);
             }
             Err(_) => prop_assert!(brute(&stars, start, target, f.field_radius_rad() * (1.0 - margin), limit - 0.5).is_none()),
         }
@@ -206,4 +208,49 @@ fn legs_group_same_direction_hops() {
     let sum: f64 = r.legs.iter().map(|l| l.length_rad).sum();
     assert!((sum - r.total_rad).abs() < 1e-12);
     assert!(r.legs[0].sentence.starts_with("From Start, go about 1.3 fields (8.0°) north in four hops, to "), "{}", r.legs[0].sentence);
+}
+
+#[test]
+fn far_targets_are_refused_plainly() {
+    let stars = vec![HopStar { ra_rad: 0.0, dec_rad: 0.0, vmag: 1.0, id: 0 }];
+    let e = plan_route(&stars, 0, "A", eq(0.0, 70.0), "T", &finder(), 9.0, UpReference::North, &HopRules::default()).unwrap_err();
+    assert!(e.to_string().contains("at most 60°"), "{e}");
+}
+
+#[test]
+fn finder_spec_json_round_trip() {
+    let spec = FinderSpec { kind: FinderKind::ReflexSight { ring_radii_deg: vec![0.5, 2.0, 4.0] }, aperture_mm: 0.0, magnification: 1.0, true_field_deg: 20.0 };
+    let json = serde_json::to_string(&spec).unwrap();
+    assert_eq!(json, r#"{"kind":{"type":"reflex_sight","ring_radii_deg":[0.5,2.0,4.0]},"aperture_mm":0.0,"magnification":1.0,"true_field_deg":20.0}"#);
+    let back: FinderSpec = serde_json::from_str(&json).unwrap();
+    assert_eq!(back, spec);
+    let ra: FinderSpec = serde_json::from_str(r#"{"kind":{"type":"right_angle","prism":"mirror"},"aperture_mm":50,"magnification":9,"true_field_deg":5}"#).unwrap();
+    assert_eq!(ra.kind, FinderKind::RightAngle { prism: PrismKind::Mirror });
+}
+
+fn any_f64() -> impl Strategy<Value = f64> {
+    prop_oneof![Just(f64::NAN), Just(f64::INFINITY), Just(-f64::INFINITY), Just(0.0), -1e6f64..1e6, -7.0f64..7.0]
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 200, .. ProptestConfig::default() })]
+    /// Whatever a link or form feeds in, the find functions answer or refuse; they never panic.
+    #[test]
+    fn garbage_never_panics(vals in proptest::collection::vec(any_f64(), 12), n in 1usize..20, start in 0usize..25) {
+        let kinds = [FinderKind::StraightThrough, FinderKind::Binoculars, FinderKind::ReflexSight { ring_radii_deg: vec![vals[0], vals[1]] }];
+        for kind in kinds {
+            if let Ok(f) = Finder::new(FinderSpec { kind, aperture_mm: vals[2], magnification: vals[3], true_field_deg: vals[4] }) {
+                let _ = f.limiting_mag(vals[5], vals[6]);
+                let _ = f.main_field_marker(vals[7], (vals[8], vals[9]), vals[10]);
+                let _ = f.view(vals[10], vals[7], (vals[8], vals[9]), vals[5]);
+                let stars: Vec<HopStar> = (0..n).map(|i| HopStar { ra_rad: vals[i % 12] * 1e-3 * i as f64, dec_rad: vals[(i + 3) % 12] * 1e-3, vmag: vals[(i + 5) % 12] as f32, id: i as u32 }).collect();
+                let rules = HopRules { edge_margin: vals[11].abs().min(2.0), visibility_margin_mag: 0.5, faintness_penalty: 0.1 };
+                let _ = plan_route(&stars, start, "S", eq(vals[0] * 1e-3, vals[1] * 1e-3), "T", &f, vals[5], UpReference::North, &rules);
+            }
+        }
+        let hz = nightfield::sky::Horizontal { alt_rad: vals[0], az_rad: vals[1] };
+        let _ = nightfield::find::words::pointing_words(hz, &[], Default::default());
+        let _ = nightfield::find::words::hand_measure_words(vals[2]);
+        let _ = nightfield::find::circles::dial_readings(hz, nightfield::find::circles::AzimuthReference::ReferenceStar { star: hz, dial_deg: vals[3] }, nightfield::find::circles::DialSense::Clockwise, vals[4]);
+    }
 }

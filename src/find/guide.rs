@@ -65,3 +65,12 @@ pub fn zenith_catalog_frame(site: &Site, t: &Instant) -> Equatorial {
 pub fn pointing_for(app: Equatorial, site: &Site, t: &Instant, landmarks: &[Landmark], rule: LandmarkRule) -> Result<Pointing, FindError> {
     pointing_words(to_horizontal(app, site, t), landmarks, rule)
 }
+
+/// An apparent place (true equator and equinox of date) turned back to the
+/// catalogs' GCRS/ICRS axes by the NPB matrix (IAU 2006/2000B). Annual
+/// aberration (≤ 20.5″) is left in: far below a finder's resolution.
+pub fn apparent_to_catalog_frame(app: Equatorial, t: &Instant) -> Equatorial {
+    let v = npb_matrix(t.tt_jd).transpose() * unit_vector(app.ra_rad, app.dec_rad);
+    let (ra_rad, dec_rad) = ra_dec_of(v);
+    Equatorial { ra_rad, dec_rad }
+}

@@ -44,12 +44,20 @@ pub struct HopRules {
     /// Stars used must be this many magnitudes brighter than the finder's
     /// limit, so they are easy to see (not just at the threshold).
     pub visibility_margin_mag: f64,
+    /// Prefer bright stepping stones: landing on a star costs this fraction
+    /// of the hop limit per magnitude fainter than 3 mag above the star limit.
+    pub faintness_penalty: f64,
 }
 
 impl Default for HopRules {
     fn default() -> Self {
-        HopRules { edge_margin: 0.2, visibility_margin_mag: 0.5 }
+        HopRules { edge_margin: 0.2, visibility_margin_mag: 0.5, faintness_penalty: 0.1 }
     }
+}
+
+/// Extra cost (radians of path) of landing on a star of `vmag`.
+pub fn landing_penalty_rad(vmag: f64, star_limit_mag: f64, hop_rad: f64, rules: &HopRules) -> f64 {
+    rules.faintness_penalty * hop_rad * (vmag - (star_limit_mag - 3.0)).max(0.0)
 }
 
 /// Which way "up" is for the direction words.
@@ -101,11 +109,16 @@ pub struct Route {
     pub max_hop_rad: f64,
     /// Stars on the route are at least this bright.
     pub star_limit_mag: f64,
+    /// The minimised second cost: total length plus faintness penalties, radians.
+    pub cost_rad: f64,
     pub stars_considered: usize,
     pub method: &'static str,
 }
 
-pub const METHOD: &str = "shortest path (Dijkstra) over visible stars; a hop is at most the finder's field radius less the edge margin; cost = fewest hops, then shortest total length";
+/// Longest start-to-target distance searched: star hops start near the target.
+pub const MAX_ROUTE_RAD: f64 = 60.0 * core::f64::consts::PI / 180.0;
+
+pub const METHOD: &str = "shortest path (Dijkstra) over visible stars; a hop is at most the finder's field radius less the edge margin; cost = fewest hops, then least (total length + faintness penalty per landing star)";
 
 /// The cone to fetch candidate stars from (centre, radius) for a route from
 /// `start` to `target` with this finder: covers the widest corridor searched.
@@ -250,11 +263,18 @@ pub fn plan_route_named(
     let hop = max_hop_rad(finder, rules);
     let star_limit = finder_limit_mag - rules.visibility_margin_mag;
     let d = sep_rad(s0.pos(), target);
+    if !(d <= MAX_ROUTE_RAD) {
+        return Err(FindError::OutOfRange {
+            field: "distance from the starting star to the target (degrees)",
+            value: d.to_degrees(),
+            allowed: "at most 60°: start from a bright star nearer the target",
+        });
+    }
     let mut last_err = None;
     for w in corridor_widths(d, hop) {
-        match search(stars, start, target, hop, star_limit, d, w) {
-            Ok((nodes, path)) => {
-                return Ok(describe(stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
+        match search(stars, start, target, hop, star_limit, d, w, rules) {
+            Ok((nodes, path, cost)) => {
+                return Ok(describe(cost, stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
             }
             Err(e) => last_err = Some(e),
         }
@@ -268,7 +288,8 @@ struct Nodes {
     pos: Vec<Equatorial>,
 }
 
-fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_limit: f64, d: f64, w: f64) -> Result<(Nodes, Vec<u32>), FindError> {
+#[allow(clippy::too_many_arguments)]
+fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_limit: f64, d: f64, w: f64, rules: &HopRules) -> Result<(Nodes, Vec<u32>, f64), FindError> {
     let s0 = stars[start].pos();
     let mut star_of = vec![Some(start as u32)];
     let mut pos = vec![s0];
@@ -297,6 +318,14 @@ fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_li
     pos.push(target);
     let n = pos.len();
     let vs: Vec<DVec3> = pos.iter().map(|p| unit(*p)).collect();
+    let penalty: Vec<f64> = star_of
+        .iter()
+        .enumerate()
+        .map(|(k, s)| match s {
+            Some(i) if k > 0 => landing_penalty_rad(stars[*i as usize].vmag as f64, star_limit, hop, rules),
+            _ => 0.0,
+        })
+        .collect();
     let cos_hop = libm::cos(hop);
     let grid = Grid::new(&vs, 2.0 * libm::sin(hop / 2.0) * 1.000001);
     let mut best: Vec<(u32, f64)> = vec![(u32::MAX, f64::INFINITY); n];
@@ -323,7 +352,7 @@ fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_li
                 return;
             }
             let step = libm::atan2(v.cross(vs[j as usize]).length(), dot);
-            let c = (hops + 1, len + step);
+            let c = (hops + 1, len + step + penalty[j as usize]);
             let b = best[j as usize];
             if c.0 < b.0 || (c.0 == b.0 && c.1 < b.1) {
                 best[j as usize] = c;
@@ -348,7 +377,8 @@ fn search(stars: &[HopStar], start: usize, target: Equatorial, hop: f64, star_li
         path.push(at);
     }
     path.reverse();
-    Ok((Nodes { star_of, pos }, path))
+    let cost = best[n - 1].1;
+    Ok((Nodes { star_of, pos }, path, cost))
 }
 
 fn fraction_words(f: f64) -> &'static str {
@@ -403,7 +433,7 @@ fn landing_words(stars: &[HopStar], nodes: &Nodes, grid: &Grid, vs: &[DVec3], no
     let Some(si) = nodes.star_of[node] else { return String::new() };
     let me = stars[si as usize];
     let v = vs[node];
-    let pair_rad = 0.2 * hop;
+    let pair_rad = 0.12 * hop;
     let mut pair: Option<(u32, f64)> = None;
     let mut brightest = true;
     grid.near(v, |j| {
@@ -437,7 +467,7 @@ fn landing_words(stars: &[HopStar], nodes: &Nodes, grid: &Grid, vs: &[DVec3], no
 }
 
 #[allow(clippy::too_many_arguments)]
-fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, target_label: &str, finder: &Finder, hop: f64, star_limit: f64, up: UpReference, name_of: &dyn Fn(u32) -> Option<String>) -> Route {
+fn describe(cost_rad: f64, stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, target_label: &str, finder: &Finder, hop: f64, star_limit: f64, up: UpReference, name_of: &dyn Fn(u32) -> Option<String>) -> Route {
     let vs: Vec<DVec3> = nodes.pos.iter().map(|p| unit(*p)).collect();
     let grid = Grid::new(&vs, 2.0 * libm::sin(hop / 2.0) * 1.000001);
     let last = path.len() - 1;
@@ -509,6 +539,7 @@ fn describe(stars: &[HopStar], nodes: &Nodes, path: &[u32], start_label: &str, t
         total_rad: total,
         max_hop_rad: hop,
         star_limit_mag: star_limit,
+        cost_rad,
         stars_considered: nodes.pos.len().saturating_sub(2),
         method: METHOD,
     }

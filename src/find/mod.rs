@@ -6,6 +6,7 @@
 //! `orient.rs`: (east, north) radians → screen (right, up).
 
 pub mod bench;
+pub mod card;
 pub mod circles;
 pub mod finder;
 pub mod geom;

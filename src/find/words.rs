@@ -61,6 +61,9 @@ pub fn compass_point_16(az_rad: f64) -> CompassPoint {
 /// "about one and a half fists (15°)". Conventions in the module doc.
 pub fn hand_measure_words(angle_rad: f64) -> String {
     let deg = angle_rad.abs().to_degrees();
+    if !deg.is_finite() {
+        return "an unknown angle".to_string();
+    }
     let d_round = libm::round(deg) as i64;
     if deg < 0.75 {
         return format!("less than a finger's width ({})", small_deg(deg));

@@ -82,7 +82,7 @@ pub fn compose(inp: &ComposeInput) -> Result<Scene, ComposeError> {
     let ha = hour_angle_rad(inp.center.ra_rad, inp.site.lon_rad, &inp.instant);
     let q = parallactic_angle_rad(ha, inp.center.dec_rad, lat);
     let hz = to_horizontal(inp.center, &inp.site, &inp.instant);
-    let state = MountState { parallactic_rad: q, alt_rad: hz.alt_rad, pier_side: None, user_rotation_rad: inp.user_rotation_rad, dec_rad: None };
+    let state = MountState { parallactic_rad: q, alt_rad: hz.alt_rad, pier_side: None, user_rotation_rad: inp.user_rotation_rad, dec_rad: Some(inp.center.dec_rad) };
     let orient = orientation(inp.train, &state)?;
     let mut scene = Scene::for_figures(inp.center, &fig, orient, inp.sensor_rotation_rad);
     scene.set_zenith(q);
