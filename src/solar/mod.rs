@@ -19,7 +19,7 @@ pub mod topocentric;
 
 pub use ephemeris::{Ephemeris, EphemerisError, OutOfCoverage, Series, AU_KM};
 pub use state::{body_state_from, BodyState};
-pub use topocentric::{all_bodies, apparent_place, body_apparent, body_horizontal};
+pub use topocentric::{all_bodies, apparent_place, body_apparent, body_horizontal, night_track};
 
 use serde::{Deserialize, Serialize};
 use std::fmt;

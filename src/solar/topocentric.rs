@@ -9,6 +9,7 @@ use crate::sky::frames::npb_matrix;
 use crate::sky::horizon::{observer_position_of_date_m, observer_velocity_of_date_m_s, to_horizontal};
 use crate::sky::{Horizontal, Site};
 use crate::time::Instant;
+use glam::{DMat3, DVec3};
 
 fn check(t: &Instant, site: &Site) -> Result<(), SolarError> {
     if !(t.tt_jd.is_finite() && t.ut1_jd.is_finite()) {
@@ -20,13 +21,17 @@ fn check(t: &Instant, site: &Site) -> Result<(), SolarError> {
     Ok(())
 }
 
-/// Topocentric apparent place (true equator and equinox of date) of a body.
-pub fn apparent_place(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<Apparent, SolarError> {
+/// The frame of one instant and site: NPB matrix and the site's GCRS position/velocity.
+fn site_frame(t: &Instant, site: &Site) -> Result<(DMat3, DVec3, DVec3), SolarError> {
     check(t, site)?;
     let npb = npb_matrix(t.tt_jd);
     let m = npb.transpose();
-    let r = m * observer_position_of_date_m(site, t);
-    let v = m * observer_velocity_of_date_m_s(site, t);
+    Ok((npb, m * observer_position_of_date_m(site, t), m * observer_velocity_of_date_m_s(site, t)))
+}
+
+/// Topocentric apparent place (true equator and equinox of date) of a body.
+pub fn apparent_place(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<Apparent, SolarError> {
+    let (npb, r, v) = site_frame(t, site)?;
     apparent_from_site_gcrs(eph, body, t.tt_jd, &npb, r, v)
 }
 
@@ -39,10 +44,11 @@ pub fn body_apparent(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) ->
 
 /// All nine bodies at one instant (the Sun's place computed once).
 pub fn all_bodies(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<[BodyState; 9], SolarError> {
-    let sun = apparent_place(eph, BodyId::Sun, t, site)?;
+    let (npb, r, v) = site_frame(t, site)?;
+    let sun = apparent_from_site_gcrs(eph, BodyId::Sun, t.tt_jd, &npb, r, v)?;
     let mut out = [body_state_from(BodyId::Sun, &sun, &sun); 9];
     for (o, b) in out.iter_mut().zip(BodyId::ALL).skip(1) {
-        *o = body_state_from(b, &apparent_place(eph, b, t, site)?, &sun);
+        *o = body_state_from(b, &apparent_from_site_gcrs(eph, b, t.tt_jd, &npb, r, v)?, &sun);
     }
     Ok(out)
 }
@@ -50,4 +56,22 @@ pub fn all_bodies(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<[BodyStat
 /// Altitude/azimuth of a body (geometric: no refraction).
 pub fn body_horizontal(eph: &Ephemeris, body: BodyId, t: &Instant, site: &Site) -> Result<Horizontal, SolarError> {
     Ok(to_horizontal(apparent_place(eph, body, t, site)?.ra_dec, site, t))
+}
+
+/// All bodies every `step_minutes` from `start` for `hours` (e.g. a night in
+/// 5-minute steps: the planner's track and the bench's workload).
+pub fn night_track(eph: &Ephemeris, start: &Instant, site: &Site, step_minutes: f64, hours: f64) -> Result<Vec<[BodyState; 9]>, SolarError> {
+    if !(step_minutes.is_finite() && hours.is_finite() && step_minutes >= 0.5 && hours >= 0.0 && hours <= 48.0) {
+        return Err(SolarError::NotFinite { field: "night track step (≥ 0.5 min) or length (0–48 h)" });
+    }
+    let n = (hours * 60.0 / step_minutes).floor() as usize + 1;
+    let mut out = Vec::with_capacity(n);
+    for i in 0..n {
+        let d = i as f64 * step_minutes / 1440.0;
+        // All three scales advance together (ΔT drifts < 1 ms in 48 h; a leap
+        // second inside the track would shift only the UTC labels, by 1 s).
+        let t = Instant { utc_jd: start.utc_jd + d, tt_jd: start.tt_jd + d, ut1_jd: start.ut1_jd + d };
+        out.push(all_bodies(eph, &t, site)?);
+    }
+    Ok(out)
 }
