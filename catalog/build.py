@@ -30,6 +30,7 @@ N_ZONES = 120
 BRIGHT_LIMIT_V = 6.5
 GAIA_LIMIT_G = 10.0
 MATCH_RADIUS_ARCSEC = 3.0
+RED_BV = 1.4
 HIP_EPOCH = 1991.25
 GAIA_EPOCH = 2016.0
 MISSING_I16 = -32768
@@ -57,11 +58,11 @@ RIELLO_G_MINUS_V = (-0.02704, 0.01424, -0.2156, 0.01426)
 BUDGET_GZ = {
     "stars_bright.nfs": 180_000,
     "stars_hip.nfs": 1_800_000,
-    "stars_gaia.nfs": 2_200_000,
+    "stars_gaia.nfs": 2_050_000,
     "dso_openngc.nfd": 400_000,
     "names_iau.tsv": 4_000,
 }
-BUDGET_TOTAL_GZ = 4_300_000
+BUDGET_TOTAL_GZ = 4_200_000
 
 
 def v_minus_hp(bv):
@@ -259,7 +260,7 @@ def gaia_file(d, keep, coef):
     has = (bp > 0) & (rp > 0)
     bprp = np.where(has, bp - rp, 0.0)
     v = np.where(has, gm - g_minus_v(bprp), gm)
-    x = np.clip(bprp, -0.5, 4.0)
+    x = np.clip(bprp, -0.5, 3.0)  # the fit's range ends at 3; a cubic must not run on
     bv = np.where(has, coef[0] + coef[1] * x + coef[2] * x * x + coef[3] * x ** 3, np.nan)
     z, c, tiles = tile_of(g["ra"], g["dec"])
     order = np.lexsort((g["id"], np.round(v * 100), tiles))
@@ -271,9 +272,11 @@ def gaia_file(d, keep, coef):
     dra = np.clip(np.floor(fr * OFFSET_STEPS), 0, OFFSET_STEPS - 1).astype("<u2")
     ddec = np.clip(np.floor(fd * OFFSET_STEPS), 0, OFFSET_STEPS - 1).astype("<u2")
     # Within a tile by V (bright first), V delta-coded; V kept to 0.01 mag and the
-    # estimated B-V to 0.02 mag (the relations scatter by ~0.03 mag).
+    # estimated B-V to 0.02 mag (the relations scatter by ~0.03 mag): u8 code
+    # round((B-V + 0.5) / 0.02), 255 = unknown.
     vq = mmag(np.round(v[order] * 100) / 100)
-    bq = mmag(np.round(bv[order] * 50) / 50)
+    b = bv[order]
+    bq = np.where(np.isfinite(b), np.clip(np.round((np.nan_to_num(b) + 0.5) / 0.02), 0, 254), 255).astype("u1")
     cols = [(dra, False), (ddec, False), (vq, True), (bq, False)]
     return star_file(LAYOUT_PHOTOMETRIC, GAIA_EPOCH, "Gaia DR3 G<10 -Hipparcos", GAIA_LIMIT_G, tiles, cols), len(g)
 
@@ -351,14 +354,46 @@ def names_file():
     return ("\n".join(lines) + "\n").encode("utf-8")
 
 
+def red_v_from_gaia(h, d, pairs):
+    """For Hipparcos stars redder than B-V 1.4, where the clamped Bessell table runs out
+    (V too bright by 0.03-0.3 mag against Gaia), take V from the matched Gaia source via
+    Riello et al. (2021) when it has BP and RP. Returns the number of stars changed."""
+    hi = np.array([p[0] for p in pairs]); gi = np.array([p[1] for p in pairs])
+    ok = (d["bp"][gi] > 0) & (d["rp"][gi] > 0) & (d["id"][gi] > 0) & (h["bv"][hi] > RED_BV)
+    hi, gi = hi[ok], gi[ok]
+    x = (d["bp"][gi] - d["rp"][gi]).astype(np.float64)
+    h["v"][hi] = d["g"][gi].astype(np.float64) - g_minus_v(x)
+    # Red stars without Gaia colours (the brightest, which the package took from
+    # Hipparcos): V = Hp + the median V(Gaia) - Hp of the matched stars in their 0.1-mag
+    # B-V bin (bins with >= 20 stars; beyond the last bin its value).
+    vh = h["v"][hi] - h["hp"][hi]
+    bins = np.floor(h["bv"][hi] * 10).astype(np.int64)
+    table = {}
+    for k in np.unique(bins):
+        m = bins == k
+        if m.sum() >= 20:
+            table[int(k)] = float(np.round(np.median(vh[m]), 4))
+    rest = np.nonzero((h["bv"] > RED_BV) & ~np.isin(np.arange(len(h["hip"])), hi))[0]
+    keys = sorted(table)
+    for i in rest:
+        k = int(np.floor(h["bv"][i] * 10))
+        k = min(max(k, keys[0]), keys[-1])
+        while k not in table:
+            k -= 1
+        h["v"][i] = h["hp"][i] + table[k]
+    return len(hi), len(rest), table
+
+
 def build():
     out = {}
     h = load_hipparcos()
+    d = load_gaia()
+    dup, pairs = match_gaia_to_hip(d, h)
+    v_table = h["v"].copy()
+    n_red, n_red_binned, red_table = red_v_from_gaia(h, d, pairs)
     bright = h["v"] <= BRIGHT_LIMIT_V
     out["stars_bright.nfs"] = hip_file(h, bright, "Hipparcos I/311 V<=6.5", BRIGHT_LIMIT_V)
     out["stars_hip.nfs"] = hip_file(h, ~bright, "Hipparcos I/311 V>6.5", float(np.max(h["v"])))
-    d = load_gaia()
-    dup, pairs = match_gaia_to_hip(d, h)
     keep = np.ones(len(d), dtype=bool)
     keep[dup] = False
     coef, nfit, mad = fit_bv_from_bprp(h, d, pairs)
@@ -367,7 +402,7 @@ def build():
     hi = np.array([p[0] for p in pairs]); gi = np.array([p[1] for p in pairs])
     ok = (d["bp"][gi] > 0) & (d["rp"][gi] > 0) & (d["id"][gi] > 0)
     vg = d["g"][gi][ok] - g_minus_v((d["bp"][gi][ok] - d["rp"][gi][ok]).astype(np.float64))
-    dv = vg - h["v"][hi][ok]
+    dv = vg - v_table[hi][ok]
     out["dso_openngc.nfd"], ndso, missing_m = dso_file()
     out["names_iau.tsv"] = names_file()
     notes = [
@@ -378,6 +413,9 @@ def build():
         f"fit on {nfit} matches, median |resid| {mad:.3f} mag",
         f"V(Gaia, Riello 2021) - V(Hipparcos, Bessell 2000) on {len(dv)} matches: "
         f"median {np.median(dv):+.3f}, median |dev| {np.median(np.abs(dv - np.median(dv))):.3f} mag",
+        f"Hipparcos stars with B-V > {RED_BV} given V from their Gaia match: {n_red}; "
+        f"from the binned V-Hp of those matches: {n_red_binned}",
+        "V-Hp by B-V bin (red stars): " + ", ".join(f"{k / 10:.1f}:{v:+.3f}" for k, v in sorted(red_table.items()) if k >= 14),
         f"OpenNGC objects: {ndso}; Messier numbers without a record: {missing_m}",
     ]
     return out, notes

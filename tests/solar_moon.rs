@@ -61,3 +61,25 @@ fn colongitude_follows_the_phase() {
     assert_eq!(phase_name(std::f64::consts::PI), "full moon");
     assert_eq!(phase_name(6.2), "new moon");
 }
+
+#[test]
+fn site_conveniences_agree_with_the_parts() {
+    use nightfield::sky::Site;
+    use nightfield::solar::{galilean_moons_at, moon_at, saturn_rings_at};
+    use nightfield::time::Instant;
+    let e = eph();
+    let t = Instant::from_utc_jd(2_460_400.4).unwrap();
+    let site = Site { lat_rad: 0.9, lon_rad: 0.13, elev_m: 100.0 };
+    let (face, name, age) = moon_at(&e, &t, &site).unwrap();
+    assert!(face.libration_lat_rad.abs() < 7f64.to_radians() && face.libration_lon_rad.abs() < 9f64.to_radians());
+    assert!((0.0..29.6).contains(&age) && !name.is_empty());
+    let r = saturn_rings_at(&e, &t, &site).unwrap();
+    assert!(r.earth_tilt_rad.abs() < 27f64.to_radians());
+    let m = galilean_moons_at(&e, &t).unwrap();
+    // Semi-major axes, Jupiter radii (Meeus ch. 44): no moon strays beyond its orbit.
+    for (o, a) in m.iter().zip([5.9, 9.4, 15.0, 26.4]) {
+        assert!((o.east * o.east + o.north * o.north).sqrt() < a * 1.02);
+    }
+    let bad = Instant { utc_jd: f64::NAN, tt_jd: f64::NAN, ut1_jd: f64::NAN };
+    assert!(moon_at(&e, &bad, &site).is_err() && galilean_moons_at(&e, &bad).is_err());
+}

@@ -58,3 +58,30 @@ fn diameters_fractions_and_magnitudes_match_references() {
     }
     println!("worst: diameter {:.5} rel, fraction {worst_k:.6}, M&H {worst_mh:.3} mag, PyEphem {worst_pe:.3} mag", worst_d);
 }
+
+#[test]
+fn magnitudes_at_well_known_events() {
+    // Values from memory (widely reported almanac figures), geocentric:
+    // Mars at the 2003-08-28 perihelic opposition −2.9; Jupiter at the
+    // 2023-11-03 opposition −2.9; Saturn at the 2003-12-31 opposition, rings
+    // open, −0.5; Venus at greatest brilliancy 2020-04-28 −4.7.
+    use glam::DVec3;
+    use nightfield::sky::frames::npb_matrix;
+    use nightfield::solar::apparent::apparent_from_site_gcrs;
+    let e = eph();
+    let at = |b: BodyId, tt: f64| {
+        let npb = npb_matrix(tt);
+        let a = apparent_from_site_gcrs(&e, b, tt, &npb, DVec3::ZERO, DVec3::ZERO).unwrap();
+        let s = apparent_from_site_gcrs(&e, BodyId::Sun, tt, &npb, DVec3::ZERO, DVec3::ZERO).unwrap();
+        body_state_from(b, &a, &s).vmag
+    };
+    for (b, tt, want) in [
+        (BodyId::Mars, 2_452_879.9, -2.9),
+        (BodyId::Jupiter, 2_460_252.5, -2.9),
+        (BodyId::Saturn, 2_453_005.5, -0.5),
+        (BodyId::Venus, 2_458_967.5, -4.7),
+    ] {
+        let m = at(b, tt);
+        assert!((m - want).abs() < 0.15, "{} {m:.2} vs {want}", b.name());
+    }
+}

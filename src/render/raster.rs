@@ -173,18 +173,25 @@ impl<'a> Canvas<'a> {
     }
 }
 
-/// Fills an RGBA8 slice with one colour: one 256-byte block built by hand,
-/// then whole-block copies (memcpy speed).
+/// Fills an RGBA8 slice with one colour: one pixel, then the filled part
+/// copied onto the rest in doubling blocks (a few large memcpys).
 pub fn fill_rgba(px: &mut [u8], rgba: [u8; 4]) {
-    let mut pat = [0u8; 256];
-    for p in pat.chunks_exact_mut(4) {
-        p.copy_from_slice(&rgba);
+    let n = px.len() / 4 * 4;
+    if n == 0 {
+        return;
     }
-    let mut blocks = px.chunks_exact_mut(256);
-    for b in &mut blocks {
-        b.copy_from_slice(&pat);
+    px[..4].copy_from_slice(&rgba);
+    let mut done = 4;
+    while done < n {
+        let m = done.min(n - done);
+        px.copy_within(0..m, done);
+        done += m;
     }
-    let rest = blocks.into_remainder();
-    let n = rest.len();
-    rest.copy_from_slice(&pat[..n]);
+}
+
+/// Floor of a float as i32 without a libm call (inputs are pixel coordinates).
+#[inline(always)]
+pub(crate) fn floor_i32(v: f32) -> i32 {
+    let i = v as i32;
+    if (i as f32) > v { i - 1 } else { i }
 }

@@ -77,10 +77,11 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
     if !(x + r >= 0.0 && y + r >= 0.0 && x - r < cv.w as f32 && y - r < cv.h as f32) {
         return;
     }
-    let x0 = (x - r).floor().max(0.0) as usize;
-    let y0 = ((y - r).floor().max(0.0) as usize).max(rows.0);
-    let x1 = ((x + r).floor() as usize + 1).min(cv.w);
-    let y1 = ((y + r).floor() as usize + 1).min(cv.h).min(rows.1);
+    use super::raster::floor_i32;
+    let x0 = floor_i32(x - r).max(0) as usize;
+    let y0 = (floor_i32(y - r).max(0) as usize).max(rows.0);
+    let x1 = ((floor_i32(x + r) + 1).max(0) as usize).min(cv.w);
+    let y1 = ((floor_i32(y + r) + 1).max(0) as usize).min(cv.h).min(rows.1);
     if y0 >= y1 || x0 >= x1 {
         return;
     }

@@ -11,7 +11,7 @@ use core::fmt;
 
 pub(crate) mod bytes;
 mod set;
-pub use set::{credit, normalize_id, Catalogs, DSO_FILE, STAR_TIERS};
+pub use set::{credit, normalize_id, split_star_id, star_id, Catalogs, DSO_FILE, STAR_TIERS};
 use bytes::{crc32, Reader};
 
 /// File magic of a Nightfield star file.
@@ -200,7 +200,7 @@ pub fn decode_stars(bytes: &[u8]) -> Result<StarCatalog, CatalogError> {
     let tiles: usize = cells.iter().sum();
     let row = match layout {
         StarLayout::Astrometric => 28,
-        StarLayout::Photometric => 8,
+        StarLayout::Photometric => 7,
     };
     let expect = zones * 2 + tiles * 4 + count * row;
     if expect != payload_len {
@@ -319,7 +319,7 @@ fn decode_photometric(r: &mut Reader, n: usize, counts: &[u32], cells: &[usize])
     let ddec = r.shuffled_u16(n)?;
     let mut vm = r.shuffled_u16(n)?;
     undelta(&mut vm, counts, u16::wrapping_add);
-    let bv = r.shuffled_u16(n)?;
+    let bv = r.take(n)?;
     let zone_h = core::f64::consts::PI / cells.len() as f64;
     let steps = OFFSET_STEPS as f64;
     let mut out = Vec::with_capacity(n);
@@ -340,7 +340,7 @@ fn decode_photometric(r: &mut Reader, n: usize, counts: &[u32], cells: &[usize])
                     pm_dec_mas_yr: 0.0,
                     parallax_mas: 0.0,
                     vmag: mag_from("vmag", j, vm[j] as i16, -2.0, 21.0, "-2 to 21", false)?,
-                    bv: mag_from("bv", j, bv[j] as i16, -1.0, 7.0, "-1 to 7 or unknown", true)?,
+                    bv: if bv[j] == 255 { f32::NAN } else { bv[j] as f32 * 0.02 - 0.5 },
                     hip: 0,
                 });
             }

@@ -4,6 +4,8 @@
 //!
 //! Invariants: radians and AU inside; TT/TDB Julian dates; every public
 //! routine that a user date reaches returns `SolarError` instead of panicking.
+//! Start at `topocentric` (`body_apparent`, `all_bodies`, `night_track`); the
+//! ephemeris bytes come from catalog/ephemeris.bin via `Ephemeris::decode`.
 
 pub mod ephemeris;
 pub mod apparent;
@@ -19,7 +21,9 @@ pub mod topocentric;
 
 pub use ephemeris::{Ephemeris, EphemerisError, OutOfCoverage, Series, AU_KM};
 pub use state::{body_state_from, BodyState};
-pub use topocentric::{all_bodies, apparent_place, body_apparent, body_horizontal, night_track};
+pub use topocentric::{
+    all_bodies, apparent_place, body_apparent, body_horizontal, galilean_moons_at, moon_at, night_track, saturn_rings_at,
+};
 
 use serde::{Deserialize, Serialize};
 use std::fmt;

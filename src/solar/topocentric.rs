@@ -75,3 +75,23 @@ pub fn night_track(eph: &Ephemeris, start: &Instant, site: &Site, step_minutes: 
     }
     Ok(out)
 }
+
+/// Galilean moons at an instant (geocentric; offsets barely depend on the site).
+pub fn galilean_moons_at(eph: &Ephemeris, t: &Instant) -> Result<[super::jupiter::MoonOffset; 4], SolarError> {
+    if !t.tt_jd.is_finite() {
+        return Err(SolarError::NotFinite { field: "instant" });
+    }
+    super::jupiter::galilean_moons(eph, t.tt_jd, npb_matrix(t.tt_jd).row(2))
+}
+
+/// Saturn's ring geometry seen from a site.
+pub fn saturn_rings_at(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<super::saturn::RingGeometry, SolarError> {
+    Ok(super::saturn::saturn_rings(&apparent_place(eph, BodyId::Saturn, t, site)?))
+}
+
+/// The Moon's libration, axis and colongitude seen from a site, with its phase name and age (days).
+pub fn moon_at(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<(super::moon::MoonFace, &'static str, f64), SolarError> {
+    let face = super::moon::moon_face(&apparent_place(eph, BodyId::Moon, t, site)?);
+    let (name, age) = super::moon::moon_phase(eph, t.tt_jd)?;
+    Ok((face, name, age))
+}

@@ -3,6 +3,7 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { openBrowser, gotoReady, canvasBytes, screenshot, PHONE, DESKTOP } from './harness.mjs';
 import { linkPayload, readPayload } from './links.mjs';
+import jsQR from 'jsqr';
 
 const savedKit = (page) => page.evaluate(() => JSON.parse(localStorage.getItem('nightfield.kit') || 'null'));
 
@@ -96,9 +97,12 @@ test('share link round trip gives identical canvas pixels', async (t) => {
   await gotoReady(b.page, url);
   const after = await canvasBytes(b.page);
   assert.deepEqual(after, before);
-  // The QR code is drawn.
-  const qrW = await a.page.evaluate(() => document.getElementById('qr').width);
-  assert.ok(qrW >= 100);
+  // The QR code on the page reads back as the link (independent decoder: jsqr).
+  const qr = await a.page.evaluate(() => {
+    const c = document.getElementById('qr');
+    return { w: c.width, h: c.height, d: Array.from(c.getContext('2d').getImageData(0, 0, c.width, c.height).data) };
+  });
+  assert.equal(jsQR(Uint8ClampedArray.from(qr.d), qr.w, qr.h)?.data, link);
   assert.deepEqual([...a.errors, ...b.errors], []);
 });
 
@@ -169,5 +173,66 @@ test('a dead wasm instance is reported and replaced; nothing saved is lost', asy
   const after = await canvasBytes(page);
   assert.deepEqual(after, before);
   assert.deepEqual(await savedKit(page), kit);
+  assert.deepEqual(errors, []);
+});
+
+test('the Sun as target shows the solar caution', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.fill('#search', 'Sun');
+  await page.click('#search-form button[type="submit"]');
+  const c = page.locator('#solar-caution[role="alert"]');
+  await c.waitFor({ state: 'visible', timeout: 10000 });
+  assert.match(await c.textContent(), /full-aperture solar filter/);
+  // Back to a night target far from the Sun: the caution goes.
+  await page.fill('#search', 'M 45');
+  await page.click('#search-form button[type="submit"]');
+  await c.waitFor({ state: 'hidden', timeout: 10000 });
+  assert.deepEqual(errors, []);
+});
+
+test('drag pans the view, the wheel steps eyepieces, re-centre restores', async (t) => {
+  const { page, server, errors } = await openBrowser(t, DESKTOP);
+  await gotoReady(page, server.url);
+  const start = await canvasBytes(page);
+  const box = await page.locator('#view').boundingBox();
+  const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+  await page.mouse.move(cx, cy);
+  await page.mouse.down();
+  await page.mouse.move(cx + 60, cy + 25, { steps: 5 });
+  await page.mouse.up();
+  await page.waitForTimeout(100);
+  assert.notEqual((await canvasBytes(page)).hash, start.hash, 'the drag moved the view');
+  await page.click('#recentre');
+  assert.deepEqual(await canvasBytes(page), start, 're-centred');
+  const mag = () => page.locator('#figures dt:text-is("Magnification") + dd').textContent();
+  const m0 = await mag();
+  await page.mouse.move(cx, cy);
+  await page.mouse.wheel(0, -120); // wheel up: more power
+  await page.waitForFunction((m) => document.querySelector('#figures').textContent.indexOf(m) < 0, m0);
+  const m1 = await mag();
+  assert.ok(parseFloat(m1) > parseFloat(m0), `${m0} -> ${m1}`);
+  assert.deepEqual(errors, []);
+});
+
+test('kit import: a bad file is refused in words and the kit kept; a good one replaces it after asking', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.click('#tab-kit');
+  await page.click('li[data-item="ep-6"] >> text=Remove'); // make the saved kit differ from the demo
+  const before = await savedKit(page);
+  await page.setInputFiles('#kit-import', { name: 'broken.json', mimeType: 'application/json', buffer: Buffer.from('{"schema": 2, "items": [{"id":"x","kind":"eyepiece","focal_mm":-4,"afov_deg":50}], "stations": []}') });
+  await page.waitForFunction(() => !document.getElementById('alert').hidden);
+  assert.match(await page.locator('#alert').textContent(), /broken\.json.*not imported.*allowed 1 to 100.*unchanged/);
+  assert.deepEqual(await savedKit(page), before);
+  const good = { format: 'nightfield-kit', schema: 2, items: [
+    { id: 'b', kind: 'binocular', name: '7×35 binoculars', aperture_mm: 35, magnification: 7, tfov_deg: 8 }],
+    stations: [{ id: 's', name: 'Hand-held', binocular: 'b', eyepieces: [] }] };
+  await page.setInputFiles('#kit-import', { name: 'club.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(good)) });
+  await page.waitForFunction(() => /Imported 1 items/.test(document.getElementById('kit-note').textContent));
+  const after = await savedKit(page);
+  assert.equal(after.items.length, 1);
+  assert.equal(after.stations[0].binocular, 'b');
+  await page.waitForFunction(() => /7×35 binoculars|Hand-held/.test(document.getElementById('view-caption').textContent));
   assert.deepEqual(errors, []);
 });

@@ -8,7 +8,7 @@ import { renderFigures, solarCaution } from './figures.js';
 import { paint, attachGestures } from './view.js';
 import { encodeQr, drawQr } from './qr.js';
 import { loadTiers, showTiers, registerWorker, askPersist } from './offline.js';
-import { zonedToUtcMs, utcToZoned, isValidZone } from './time.js';
+import { zonedToUtcMs, utcToZoned, isValidZone, siteLabel } from './time.js';
 
 const $ = (id) => document.getElementById(id);
 const SESSION_KEY = 'nightfield.session';
@@ -106,6 +106,8 @@ const app = {
     $('solar-caution').hidden = !caution;
     $('solar-caution').textContent = caution || '';
     this.paintAll();
+    const ep = this.currentEyepiece();
+    $('print-summary').textContent = `${this.state.site.name} · ${siteLabel(this.state.utc_ms, this.state.site.tz)} · ${st.name}${ep ? ` · ${ep.name}` : ''} · ${targetLabel(this.state.target)}`;
     renderSite(this);
     this.saveSession();
     if (!$('panel-share').hidden) this.renderShare();
@@ -159,7 +161,17 @@ const app = {
   },
 
   linkFor() {
-    const payload = this.host.call((e) => e.encodeLink(toScenario(this.state)));
+    // The page rebuilds the trains from the kit, so the link leaves them out (a shorter QR code).
+    // It also carries only the chosen station and its equipment: all the view needs.
+    const st = this.station();
+    const used = new Set([st.telescope, st.binocular, st.diagonal, st.barlow, st.camera, ...st.eyepieces].filter(Boolean));
+    const kit = { ...this.state.kit, items: this.state.kit.items.filter((i) => used.has(i.id)), stations: [st] };
+    const full = toScenario({ ...this.state, kit });
+    let payload;
+    try { payload = this.host.call((e) => e.encodeLink({ ...full, train: null, stations: [] })); } catch (err) {
+      if (err.engineDied) throw err;
+      payload = this.host.call((e) => e.encodeLink(full));
+    }
     const u = new URL(location.href);
     u.hash = `s=${payload}`;
     u.search = '';
@@ -172,7 +184,7 @@ const app = {
     $('share-link').value = link;
     const canvas = $('qr');
     try {
-      const qr = encodeQr(link, link.length > 1200 ? 'L' : 'M');
+      const qr = encodeQr(link, link.length > 400 ? 'L' : 'M');
       const night = document.documentElement.dataset.night === '1';
       drawQr(canvas.getContext('2d'), qr, 600, night ? '#ff2a1a' : '#000', night ? '#000' : '#fff');
       $('share-note').textContent = `Link: ${link.length} characters; QR code version ${qr.version}. Scan it with another phone's camera.`;

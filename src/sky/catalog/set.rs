@@ -55,6 +55,16 @@ pub struct Catalogs {
     by_hip: HashMap<u32, u32>,
 }
 
+/// A star id from a tier number and an index into that tier's `stars`.
+pub fn star_id(tier: usize, index: u32) -> u32 {
+    ((tier as u32) << TIER_SHIFT) | (index & ((1 << TIER_SHIFT) - 1))
+}
+
+/// (tier, index into that tier's `stars`) of a star id.
+pub fn split_star_id(id: u32) -> (usize, u32) {
+    ((id >> TIER_SHIFT) as usize, id & ((1 << TIER_SHIFT) - 1))
+}
+
 /// Normalized form of a catalogue identifier: lower-case prefix, number without leading
 /// zeros, lower-case suffix ("NGC0224" → "ngc224", "IC 434" → "ic434", "Mel022" → "mel22").
 pub fn normalize_id(s: &str) -> String {
@@ -107,6 +117,14 @@ impl Catalogs {
         v
     }
 
+    /// Attribution lines of the loaded files plus the compiled-in star names, to show offline.
+    pub fn credits(&self) -> Vec<&'static str> {
+        let mut v: Vec<&'static str> = self.loaded().into_iter().map(credit).collect();
+        v.push(credit("names_iau"));
+        v.dedup();
+        v
+    }
+
     /// A star by id, with the Julian-year epoch of its catalog position.
     pub fn star(&self, id: u32) -> Option<(&Star, f64)> {
         let t = self.tiers.get((id >> TIER_SHIFT) as usize)?.as_ref()?;
@@ -153,7 +171,13 @@ impl Catalogs {
         })
     }
 
-    /// The index of one loaded tier (bench and tests).
+    /// One loaded tier's catalog (tier number as in [`STAR_TIERS`]); its star indices are
+    /// what [`Catalogs::tier_index`] returns and what [`split_star_id`] gives.
+    pub fn tier(&self, tier: usize) -> Option<&StarCatalog> {
+        self.tiers.get(tier)?.as_ref().map(|t| &t.cat)
+    }
+
+    /// The index of one loaded tier.
     pub fn tier_index(&self, tier: usize) -> Option<&SkyIndex> {
         self.tiers.get(tier)?.as_ref().map(|t| &t.index)
     }

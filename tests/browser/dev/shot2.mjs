@@ -1,0 +1,27 @@
+// Dev helper: desktop with compare on and the Share tab; phone Site tab; a daytime Sun view.
+import { chromium } from 'playwright-core';
+import { startServer } from '../server.mjs';
+const s = await startServer();
+const b = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu'] });
+const errors = [];
+const ready = (p) => p.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 });
+let ctx = await b.newContext({ viewport: { width: 1280, height: 800 } });
+let p = await ctx.newPage();
+p.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+await p.goto(s.url); await ready(p);
+await p.click('#compare'); await p.click('#tab-share'); await p.waitForTimeout(500);
+await p.screenshot({ path: '/tmp/shot-compare.png' });
+await ctx.close();
+ctx = await b.newContext({ viewport: { width: 390, height: 844 } });
+p = await ctx.newPage();
+await p.goto(s.url); await ready(p);
+await p.click('#tab-site'); await p.waitForTimeout(300);
+await p.locator('#panel-site').screenshot({ path: '/tmp/shot-site.png' });
+await p.click('#tab-target');
+await p.fill('#search', 'Sun'); await p.click('#search-form button');
+await p.waitForTimeout(500);
+await p.screenshot({ path: '/tmp/shot-sun.png' });
+console.log('alert:', await p.locator('#alert').textContent(), '| caution:', await p.locator('#solar-caution').textContent());
+await ctx.close();
+console.log(errors.join('\n'));
+await b.close(); await s.close();
