@@ -39,7 +39,7 @@ from jplephem.spk import SPK
 
 OUT = os.path.join(os.path.dirname(os.path.abspath(__file__)), "ephemeris.bin")
 START_JD = 2433282.5          # 1950-01-01 00:00 TDB
-SPAN_DAYS = 36864.0           # 72 x 512 days: to 2050-12-05 (DE421 ends 2053-10-09)
+SPAN_DAYS = 36864.0           # 72 x 512 days: to 2050-12-06 (DE421 ends 2053-10-09)
 AU_KM = 149597870.7
 
 # (code, name, tolerance_km): tolerances keep each body's fit error well under

@@ -96,8 +96,10 @@ impl fmt::Display for SolarError {
         match self {
             SolarError::OutOfCoverage { tt_jd, start_jd, end_jd } => write!(
                 f,
-                "date (TT Julian date {tt_jd:.3}) is outside the planet ephemeris, which covers \
-                 Julian dates {start_jd:.1} to {end_jd:.1} (1950-01-01 to 2050-12-05)"
+                "date {} (TT) is outside the planet ephemeris, which covers {} to {}",
+                ymd(*tt_jd),
+                ymd(*start_jd),
+                ymd(*end_jd)
             ),
             SolarError::NotFinite { field } => write!(f, "{field} must be a finite number"),
             SolarError::Window { start_utc_jd, end_utc_jd } => write!(
@@ -113,6 +115,24 @@ impl fmt::Display for SolarError {
     }
 }
 impl std::error::Error for SolarError {}
+
+/// "YYYY-MM-DD" of a Julian date (Gregorian; Meeus 1998 ch. 7), for messages.
+fn ymd(jd: f64) -> String {
+    if !(jd.is_finite() && jd > 0.0 && jd < 1e8) {
+        return format!("(Julian date {jd})");
+    }
+    let z = (jd + 0.5).floor();
+    let alpha = ((z - 1_867_216.25) / 36_524.25).floor();
+    let a = if z < 2_299_161.0 { z } else { z + 1.0 + alpha - (alpha / 4.0).floor() };
+    let b = a + 1524.0;
+    let c = ((b - 122.1) / 365.25).floor();
+    let d = (365.25 * c).floor();
+    let e = ((b - d) / 30.6001).floor();
+    let day = b - d - (30.6001 * e).floor();
+    let month = if e < 14.0 { e - 1.0 } else { e - 13.0 };
+    let year = if month > 2.0 { c - 4716.0 } else { c - 4715.0 };
+    format!("{year:.0}-{month:02.0}-{day:02.0}")
+}
 
 impl From<OutOfCoverage> for SolarError {
     fn from(e: OutOfCoverage) -> Self {
