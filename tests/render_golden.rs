@@ -31,6 +31,11 @@ fn catalogs() -> &'static [StarCatalog] {
     })
 }
 
+fn dsos() -> &'static nightfield::sky::dso::DsoCatalog {
+    static D: OnceLock<nightfield::sky::dso::DsoCatalog> = OnceLock::new();
+    D.get_or_init(|| nightfield::sky::dso::decode_dso(&std::fs::read(root().join("catalog/dso_openngc.nfd")).unwrap()).unwrap())
+}
+
 fn ephemeris() -> &'static Ephemeris {
     static E: OnceLock<Ephemeris> = OnceLock::new();
     E.get_or_init(|| Ephemeris::decode(&std::fs::read(root().join("catalog/ephemeris.bin")).unwrap()).unwrap())
@@ -72,6 +77,7 @@ pub fn scene_for(t: &Train, center: Equatorial, when: (i32, u32, u32, u32, u32),
         instant,
         site: site(),
         catalogs: &cats,
+        dsos: Some(dsos()),
         ephemeris: Some(ephemeris()),
         dark_sky_mag_arcsec2: dark_sky,
         driven: false,
@@ -105,19 +111,14 @@ fn golden_rich_star_field() {
     render_util::check_golden("rich_star_field", &render(&s, "rich"));
 }
 
-/// M42 with M43 in a 150/750 Newtonian with 25 mm (30×): sizes from OpenNGC
-/// (90′×60′ V 4.0; 20′×15′ V 9.0), mean surface brightness from V and area.
+/// M42 with M43 and their neighbours from the OpenNGC file in a 150/750
+/// Newtonian with 25 mm (30×); mean surface brightness from V and size where
+/// the catalog has none (M42: 90′×60′, V 4.0).
 #[test]
 fn golden_large_nebula() {
     let when = (2027, 1, 10, 22, 0);
-    let mut s = scene_for(&train("newtonian_150_750_eq", None), j2000(5.5879, -5.39, when), when, 21.3, "M42");
-    let m42 = j2000(5.0 + 35.0 / 60.0 + 16.48 / 3600.0, -(5.0 + 23.0 / 60.0 + 22.8 / 3600.0), when);
-    let m43 = j2000(5.0 + 35.0 / 60.0 + 31.38 / 3600.0, -(5.0 + 16.0 / 60.0 + 2.9 / 3600.0), when);
-    let am = |a: f64| (a / 60.0_f64).to_radians();
-    let sb42 = nightfield::scene::mean_surface_brightness(4.0, 90.0, 60.0) as f32;
-    let sb43 = nightfield::scene::mean_surface_brightness(9.0, 20.0, 15.0) as f32;
-    assert!(s.add_dso(m42, am(90.0), am(60.0), 0.0, DsoLook::Nebula, sb42, Some("M42")));
-    assert!(s.add_dso(m43, am(20.0), am(15.0), 0.0, DsoLook::Nebula, sb43, Some("M43")));
+    let s = scene_for(&train("newtonian_150_750_eq", None), j2000(5.5879, -5.39, when), when, 21.3, "M42");
+    assert!(s.dsos.iter().any(|d| d.look == DsoLook::Nebula && d.semi_major.length() > (40.0f64 / 60.0).to_radians()), "M42 at its true size");
     render_util::check_golden("large_nebula", &render(&s, "nebula"));
 }
 

@@ -8,6 +8,8 @@ use crate::optics::figures::{Figures, Mode};
 use crate::orient::SkyToScreen;
 use crate::sky::apparent::{ApparentContext, CatalogPlace};
 use crate::sky::catalog::StarCatalog;
+use crate::sky::dso::{DsoCatalog, DsoKind};
+use super::DsoLook;
 use crate::sky::{Equatorial, Site};
 use crate::solar::{self, BodyId, Ephemeris, SolarError};
 use crate::time::Instant;
@@ -40,6 +42,9 @@ impl Scene {
             let p = ctx.place(&CatalogPlace::from(s), cat.epoch_jyear);
             if sc.add_star(p, s.vmag, s.bv_or(0.6)) {
                 n += 1;
+                if let Some(name) = (s.hip != 0).then(|| crate::sky::names::name_for_hip(s.hip)).flatten() {
+                    sc.add_label(p, name, LabelKind::Star);
+                }
             }
         };
         match indices {
@@ -54,6 +59,45 @@ impl Scene {
                 for s in &cat.stars {
                     one(s, self);
                 }
+            }
+        }
+        n
+    }
+
+    /// Adds the deep-sky objects of `cat` that overlap the field, at their
+    /// apparent places for `ctx` (catalog positions are J2000/ICRS, no proper
+    /// motion), drawn by type at their catalog size and position angle. The
+    /// surface brightness is the catalog's (OpenNGC, from B) or, when missing,
+    /// the mean over the outline from V (or B) and the size. Objects without a
+    /// size, and single stars/novae (the star catalog draws those), are skipped.
+    pub fn add_catalog_dsos(&mut self, cat: &DsoCatalog, ctx: &ApparentContext) -> usize {
+        let reach = self.field_reach_rad() + 1f64.to_radians();
+        let cos_reach = libm::cos(reach.min(3.0));
+        let (sd0, cd0) = libm::sincos(self.center.dec_rad);
+        let mut n = 0;
+        for d in &cat.objects {
+            let Some(look) = dso_look(d.kind) else { continue };
+            let Some(major) = d.major_arcmin.filter(|m| *m > 0.0) else { continue };
+            let minor = d.minor_arcmin.filter(|m| *m > 0.0).unwrap_or(major);
+            // Quick cut before the apparent place: angular distance of the J2000 place.
+            let (sd, cd) = libm::sincos(d.dec_rad);
+            let cosd = sd0 * sd + cd0 * cd * libm::cos(d.ra_rad - self.center.ra_rad);
+            let half_major_rad = (major as f64 / 120.0).to_radians();
+            if cosd < libm::cos((reach + half_major_rad).min(3.0)).min(cos_reach) {
+                continue;
+            }
+            let p = ctx.place(&CatalogPlace { ra_rad: d.ra_rad, dec_rad: d.dec_rad, pm_ra_cosdec_mas_yr: 0.0, pm_dec_mas_yr: 0.0, parallax_mas: 0.0, rv_km_s: 0.0 }, 2000.0);
+            // A total magnitude of a cluster-with-nebula includes its stars, which the
+            // star catalog already draws: a mean from it is capped at 18 mag/arcsec²
+            // (brighter than any nebula's mean over its outline; our bound).
+            let sb = d.surf_br_mag_arcsec2.map(|v| v as f64).or_else(|| {
+                d.vmag.or(d.bmag).map(|m| super::mean_surface_brightness(m as f64, major as f64, minor as f64).max(MIN_DERIVED_SB))
+            });
+            let sb = sb.unwrap_or(f64::NAN) as f32;
+            let am = |a: f32| (a as f64 / 60.0).to_radians();
+            let pa = d.pa_deg.map_or(0.0, |v| (v as f64).to_radians());
+            if self.add_dso(p, am(major), am(minor), pa, look, sb, Some(&d.designation())) {
+                n += 1;
             }
         }
         n
@@ -159,6 +203,24 @@ fn polar_ratio(b: BodyId) -> f64 {
         BodyId::Neptune => 24_341.0 / 24_764.0,
         _ => 1.0,
     }
+}
+
+/// Brightest mean surface brightness taken from a total magnitude, mag/arcsec².
+const MIN_DERIVED_SB: f64 = 18.0;
+
+/// How each OpenNGC type is drawn (None: not drawn as a deep-sky object).
+fn dso_look(k: DsoKind) -> Option<DsoLook> {
+    use DsoKind::*;
+    Some(match k {
+        Galaxy | GalaxyPair | GalaxyTriplet => DsoLook::Galaxy,
+        GalaxyGroup | Other => DsoLook::Other,
+        OpenCluster | Association => DsoLook::OpenCluster,
+        GlobularCluster => DsoLook::GlobularCluster,
+        ClusterNebula | HiiRegion | EmissionNebula | Nebula | ReflectionNebula | SupernovaRemnant => DsoLook::Nebula,
+        PlanetaryNebula => DsoLook::PlanetaryNebula,
+        DarkNebula => DsoLook::DarkNebula,
+        Star | DoubleStar | Nova => return None,
+    })
 }
 
 fn body_look(b: BodyId) -> BodyLook {

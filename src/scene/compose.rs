@@ -8,6 +8,7 @@ use crate::optics::{OpticsError, Train};
 use crate::orient::{orientation, MountState};
 use crate::sky::apparent::ApparentContext;
 use crate::sky::catalog::StarCatalog;
+use crate::sky::dso::DsoCatalog;
 use crate::sky::horizon::{hour_angle_rad, parallactic_angle_rad, to_horizontal};
 use crate::sky::{Equatorial, Site};
 use crate::solar::{self, BodyId, Ephemeris, SolarError};
@@ -24,6 +25,8 @@ pub struct ComposeInput<'a> {
     pub site: Site,
     /// Star tiers to draw; they must not overlap (each star in one tier only).
     pub catalogs: &'a [&'a StarCatalog],
+    /// Deep-sky objects to draw; None leaves them out.
+    pub dsos: Option<&'a DsoCatalog>,
     /// For the Sun, Moon, planets and moonlight; None leaves them out.
     pub ephemeris: Option<&'a Ephemeris>,
     /// Natural sky brightness without the Moon, V mag/arcsec².
@@ -105,6 +108,9 @@ pub fn compose(inp: &ComposeInput) -> Result<Scene, ComposeError> {
         scene.add_catalog_stars(cat, Some(&idx), &ctx);
     }
 
+    if let Some(d) = inp.dsos {
+        scene.add_catalog_dsos(d, &ctx);
+    }
     let mut moon_nl = 0.0;
     if let Some(eph) = inp.ephemeris {
         for b in BodyId::ALL {

@@ -91,12 +91,18 @@ test('share link round trip gives identical canvas pixels', async (t) => {
   assert.match(link, /#s=[A-Za-z0-9_-]+$/);
   assert.equal(readPayload(link.split('#s=')[1]).version, 1);
   const before = await canvasBytes(a.page);
-  // A second, fresh browser (no saved kit) opens the link.
-  const b = await openBrowser(t, DESKTOP);
+  // A second, fresh browser (no saved kit) in another time zone opens the link.
+  const b = await openBrowser(t, { ...DESKTOP, timezoneId: 'America/Denver' });
   const url = link.replace(a.server.url, b.server.url);
   await gotoReady(b.page, url);
   const after = await canvasBytes(b.page);
   assert.deepEqual(after, before);
+  // The site's clock (its own zone), not the device's, is shown.
+  await b.page.click('#tab-site');
+  await a.page.click('#tab-site');
+  assert.equal(await b.page.inputValue('#site-form input[name="time"]'), await a.page.inputValue('#site-form input[name="time"]'));
+  assert.equal(await b.page.inputValue('#site-form input[name="date"]'), await a.page.inputValue('#site-form input[name="date"]'));
+  await a.page.click('#tab-share');
   // The QR code on the page reads back as the link (independent decoder: jsqr).
   const qr = await a.page.evaluate(() => {
     const c = document.getElementById('qr');
@@ -212,6 +218,16 @@ test('drag pans the view, the wheel steps eyepieces, re-centre restores', async 
   await page.waitForFunction((m) => document.querySelector('#figures').textContent.indexOf(m) < 0, m0);
   const m1 = await mag();
   assert.ok(parseFloat(m1) > parseFloat(m0), `${m0} -> ${m1}`);
+  // Pinch in (two pointers closing): back to lower power.
+  await page.evaluate(({ cx, cy }) => {
+    const c = document.getElementById('view');
+    const ev = (type, id, x) => c.dispatchEvent(new PointerEvent(type, { pointerId: id, clientX: x, clientY: cy, bubbles: true, pointerType: 'touch', isPrimary: id === 1 }));
+    ev('pointerdown', 1, cx - 100); ev('pointerdown', 2, cx + 100);
+    for (let k = 1; k <= 10; k++) { ev('pointermove', 1, cx - 100 + 6 * k); ev('pointermove', 2, cx + 100 - 6 * k); }
+    ev('pointerup', 1, cx - 40); ev('pointerup', 2, cx + 40);
+  }, { cx, cy });
+  await page.waitForFunction((m) => document.querySelector('#figures').textContent.indexOf(m) < 0, m1);
+  assert.ok(parseFloat(await mag()) < parseFloat(m1), 'pinch stepped down');
   assert.deepEqual(errors, []);
 });
 

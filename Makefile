@@ -1,0 +1,64 @@
+# Nightfield: the two commands of the README are `make serve` and `make test`.
+# Every target installs what it lacks through scripts/setup.sh (idempotent).
+SHELL := /bin/bash
+.ONESHELL:
+.SHELLFLAGS := -eo pipefail -c
+PORT ?= 8080
+
+.PHONY: serve test wasm data native-test fixtures browser-test bench sizes dist setup-wasm setup-test clean
+
+## Build everything and serve the app on http://127.0.0.1:$(PORT) with the demo scenario.
+serve: wasm
+	@echo "[serve] Nightfield on http://127.0.0.1:$(PORT)/  (Ctrl-C to stop)"
+	python3 scripts/serve.py www $(PORT)
+
+## Every test: fixtures regenerated and compared, native cargo test, the wasm build, browser tests.
+test: setup-test fixtures native-test wasm sizes browser-test
+	@echo "[test] all test stages passed"
+
+setup-wasm:
+	@scripts/setup.sh wasm
+setup-test:
+	@scripts/setup.sh test
+
+## The wasm engine + JS glue into www/pkg/, and the catalog files into www/data/.
+wasm: setup-wasm data
+	@. .tools/wasm.env
+	echo "[wasm] building with $$WASM_HOW"
+	CARGO_TARGET_DIR=$$WASM_TARGET_DIR RUSTC_BOOTSTRAP=$$WASM_BOOTSTRAP RUSTC=$$WASM_RUSTC \
+	  $$WASM_CARGO build --quiet --release --lib --target wasm32-unknown-unknown $$WASM_FLAGS
+	.tools/bin/wasm-bindgen --target web --out-dir www/pkg $$WASM_TARGET_DIR/wasm32-unknown-unknown/release/nightfield.wasm
+	echo "[wasm] www/pkg/nightfield_bg.wasm: $$(stat -c %s www/pkg/nightfield_bg.wasm) bytes"
+
+## Catalog data files the page fetches (built files are committed under catalog/; copied, not committed, into www/catalog/).
+data:
+	@mkdir -p www/catalog
+	for f in catalog/*.nfs catalog/*.nfd catalog/*.bin catalog/*.tsv; do [ -e "$$f" ] && cp -u "$$f" www/catalog/; done; true
+
+native-test:
+	@echo "[test] cargo test (native)"
+	cargo test --quiet 2>&1 | tail -n 200
+
+## Regenerate every reference-library fixture and fail on any difference from the committed file.
+fixtures:
+	@shopt -s nullglob
+	for f in tests/fixtures/gen_*.py; do echo "[fixtures] $$f --check"; python3 "$$f" --check; done
+
+browser-test: wasm
+	@echo "[test] browser tests (headless Chromium)"
+	if [ -f tests/browser/package.json ]; then cd tests/browser && node --test; else echo "no browser tests yet"; exit 1; fi
+
+## Size budgets (wasm < 300 KB gzipped; everything offline < 6 MB gzipped).
+sizes: wasm
+	@scripts/sizes.sh
+
+## Benchmarks: ratios measured in one run (native and wasm).
+bench: wasm
+	@scripts/bench.sh
+
+## A versioned static folder for any HTTPS static host.
+dist: wasm
+	@scripts/dist.sh
+
+clean:
+	rm -rf target www/pkg www/catalog dist

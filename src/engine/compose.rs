@@ -1,0 +1,352 @@
+//! Gathers what the field holds into a `Scene`: the target's apparent place, the
+//! catalog stars and deep-sky objects inside the field, the Sun, Moon and planets,
+//! the orientation of the train and the markers. The renderer draws the result.
+//!
+//! Invariant: every position put into the scene is an apparent place of date
+//! (true equator and equinox), so the gnomonic offsets are consistent.
+
+use super::EngineError;
+use crate::optics::figures::{figures_for, Conditions, Figures};
+use crate::optics::train::{Accessory, Instrument, NakedEye, Train};
+use crate::orient::{self, MountState, SkyToScreen};
+use crate::scenario::{parse_civil, Scenario, TargetSpec};
+use crate::scene::{DsoLook, LabelKind, Scene};
+use crate::sky::apparent::{ApparentContext, CatalogPlace};
+use crate::sky::catalog::Catalogs;
+use crate::sky::dso::DsoKind;
+use crate::sky::frames::{ra_dec_of, unit_vector};
+use crate::sky::horizon::{hour_angle_rad, parallactic_angle_rad, site_from_deg, to_horizontal};
+use crate::sky::search::{resolve, TargetRef};
+use crate::sky::{Equatorial, Horizontal, Site};
+use crate::solar::ephemeris::Ephemeris;
+use crate::solar::state::BodyState;
+use crate::solar::BodyId;
+use crate::time::Instant;
+use glam::DVec2;
+
+/// Deepest star drawn, whatever the optics: the catalogs end about here.
+pub const CATALOG_FLOOR_MAG: f32 = 12.0;
+
+/// ICRS → apparent place of date at the site, set up once per scenario
+/// (the sky core's `ApparentContext`: space motion, deflection, aberration, NPB).
+pub struct ApparentFrame {
+    ctx: ApparentContext,
+}
+
+impl ApparentFrame {
+    pub fn new(t: &Instant, site: &Site) -> Self {
+        ApparentFrame { ctx: ApparentContext::at_site(t, site) }
+    }
+
+    pub fn context(&self) -> &ApparentContext {
+        &self.ctx
+    }
+
+    /// A catalog star (epoch `epoch_jyear`) → apparent place of date.
+    pub fn star(&self, place: &CatalogPlace, epoch_jyear: f64) -> Equatorial {
+        self.ctx.place(place, epoch_jyear)
+    }
+
+    /// A fixed ICRS direction (deep-sky object, typed coordinates) → apparent of date.
+    pub fn fixed(&self, p: Equatorial) -> Equatorial {
+        let (ra_rad, dec_rad) = ra_dec_of(self.ctx.direction(unit_vector(p.ra_rad, p.dec_rad)));
+        Equatorial { ra_rad, dec_rad }
+    }
+
+    /// Apparent of date → ICRS direction, for catalog cone queries (aberration,
+    /// ≤ 21″, is left in: far inside the query margin).
+    pub fn to_icrs(&self, p: Equatorial) -> Equatorial {
+        let (ra_rad, dec_rad) = ra_dec_of(self.ctx.npb.transpose() * unit_vector(p.ra_rad, p.dec_rad));
+        Equatorial { ra_rad, dec_rad }
+    }
+}
+
+/// What the view is pointed at, resolved.
+#[derive(Clone, Debug)]
+pub struct Aim {
+    pub name: String,
+    pub kind: String,
+    /// Apparent place of date (topocentric for solar-system bodies).
+    pub apparent: Equatorial,
+    pub body: Option<BodyId>,
+    /// Apparent size of the target (major axis), radians; 0 for a star.
+    pub size_rad: f64,
+    pub vmag: Option<f64>,
+    pub dso: Option<u32>,
+}
+
+/// Everything computed for one scenario (the figures are drawn from it).
+pub struct Composed {
+    pub scene: Scene,
+    pub aim: Aim,
+    pub instant: Instant,
+    pub site: Site,
+    pub train: Train,
+    pub optics: Figures,
+    pub horizontal: Horizontal,
+    pub parallactic_rad: f64,
+    pub orientation: orient::Description,
+    pub bodies: Vec<BodyState>,
+    pub sun_alt_rad: Option<f64>,
+    pub sun_separation_rad: Option<f64>,
+    pub moon_alt_rad: Option<f64>,
+    pub mag_limit: f32,
+}
+
+pub fn instant_of(s: &Scenario) -> Result<Instant, EngineError> {
+    let c = parse_civil("time", &s.time_utc).map_err(EngineError::Scenario)?;
+    Instant::from_civil(c.year, c.month, c.day, c.hour, c.minute, c.second, 0).map_err(|e| EngineError::Time(e.to_string()))
+}
+
+pub fn site_of(s: &Scenario) -> Result<Site, EngineError> {
+    site_from_deg(s.site.lat_deg, s.site.lon_deg, s.site.elev_m).map_err(|e| EngineError::Site(e.to_string()))
+}
+
+fn dso_look(k: DsoKind) -> DsoLook {
+    use DsoKind::*;
+    match k {
+        Galaxy | GalaxyPair | GalaxyTriplet | GalaxyGroup => DsoLook::Galaxy,
+        EmissionNebula | ReflectionNebula | Nebula | HiiRegion | SupernovaRemnant | ClusterNebula => DsoLook::Nebula,
+        PlanetaryNebula => DsoLook::PlanetaryNebula,
+        GlobularCluster => DsoLook::GlobularCluster,
+        OpenCluster | Association => DsoLook::OpenCluster,
+        DarkNebula => DsoLook::DarkNebula,
+        _ => DsoLook::Other,
+    }
+}
+
+/// Angular separation (haversine form, stable for small angles).
+pub fn separation_rad(a: Equatorial, b: Equatorial) -> f64 {
+    let sd = libm::sin((b.dec_rad - a.dec_rad) / 2.0);
+    let sr = libm::sin((b.ra_rad - a.ra_rad) / 2.0);
+    let h = sd * sd + libm::cos(a.dec_rad) * libm::cos(b.dec_rad) * sr * sr;
+    2.0 * libm::asin(libm::sqrt(h.clamp(0.0, 1.0)))
+}
+
+/// Resolves the scenario's target to an apparent place of date.
+pub fn aim(
+    s: &Scenario,
+    cats: &Catalogs,
+    eph: Option<&Ephemeris>,
+    frame: &ApparentFrame,
+    t: &Instant,
+    site: &Site,
+) -> Result<Aim, EngineError> {
+    match &s.target {
+        TargetSpec::Coordinates { ra_deg, dec_deg } => Ok(Aim {
+            name: format!("RA {:.3}°, Dec {:+.3}°", ra_deg, dec_deg),
+            kind: "position".into(),
+            apparent: frame.fixed(Equatorial { ra_rad: ra_deg.to_radians(), dec_rad: dec_deg.to_radians() }),
+            body: None,
+            size_rad: 0.0,
+            vmag: None,
+            dso: None,
+        }),
+        TargetSpec::Name(name) => match resolve(name, cats).map_err(|e| EngineError::Target(e.to_string()))? {
+            TargetRef::Star(id) => {
+                let (star, epoch) = cats.star(id).ok_or_else(|| EngineError::Target(format!("\"{name}\" is not loaded yet")))?;
+                let place = place_of(star);
+                Ok(Aim {
+                    name: cats.star_label(id),
+                    kind: "star".into(),
+                    apparent: frame.star(&place, epoch),
+                    body: None,
+                    size_rad: 0.0,
+                    vmag: Some(star.vmag as f64),
+                    dso: None,
+                })
+            }
+            TargetRef::Dso(id) => {
+                let d = cats.dso(id).ok_or_else(|| EngineError::Target(format!("\"{name}\" is not loaded yet")))?;
+                let label = dso_title(d);
+                Ok(Aim {
+                    name: label,
+                    kind: d.kind.words().to_string(),
+                    apparent: frame.fixed(Equatorial { ra_rad: d.ra_rad, dec_rad: d.dec_rad }),
+                    body: None,
+                    size_rad: 2.0 * d.radius_rad(),
+                    vmag: d.vmag.map(|v| v as f64),
+                    dso: Some(id),
+                })
+            }
+            TargetRef::Body(b) => {
+                let body = BodyId::from_name(&b).ok_or_else(|| EngineError::Target(format!("no solar-system body called \"{b}\"")))?;
+                let eph = eph.ok_or(EngineError::NotLoaded { what: "the Sun, Moon and planet positions (ephemeris.bin)" })?;
+                let st = crate::solar::topocentric::body_apparent(eph, body, t, site).map_err(|e| EngineError::Solar(e.to_string()))?;
+                Ok(Aim {
+                    name: body_title(body).into(),
+                    kind: if body == BodyId::Moon || body == BodyId::Sun { body_title(body).to_lowercase() } else { "planet".into() },
+                    apparent: st.topocentric,
+                    body: Some(body),
+                    size_rad: (st.diameter_arcsec / 3600.0).to_radians(),
+                    vmag: Some(st.vmag),
+                    dso: None,
+                })
+            }
+        },
+    }
+}
+
+/// "M 42 (Orion Nebula)", "NGC 7000 (North America Nebula)", "IC 434".
+pub fn dso_title(d: &crate::sky::dso::Dso) -> String {
+    match d.common_names.first() {
+        Some(c) if !c.is_empty() => format!("{} ({})", d.designation(), c),
+        _ => d.designation(),
+    }
+}
+
+pub fn body_title(b: BodyId) -> &'static str {
+    match b {
+        BodyId::Sun => "Sun",
+        BodyId::Moon => "Moon",
+        BodyId::Mercury => "Mercury",
+        BodyId::Venus => "Venus",
+        BodyId::Mars => "Mars",
+        BodyId::Jupiter => "Jupiter",
+        BodyId::Saturn => "Saturn",
+        BodyId::Uranus => "Uranus",
+        BodyId::Neptune => "Neptune",
+    }
+}
+
+fn place_of(star: &crate::sky::catalog::Star) -> CatalogPlace {
+    CatalogPlace {
+        ra_rad: star.ra_rad,
+        dec_rad: star.dec_rad,
+        pm_ra_cosdec_mas_yr: star.pm_ra_cosdec_mas_yr as f64,
+        pm_dec_mas_yr: star.pm_dec_mas_yr as f64,
+        parallax_mas: star.parallax_mas as f64,
+        rv_km_s: 0.0,
+    }
+}
+
+/// Builds the scene and the numbers beside it for a validated scenario.
+pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result<Composed, EngineError> {
+    let t = instant_of(s)?;
+    let site = site_of(s)?;
+    let frame = ApparentFrame::new(&t, &site);
+    let aim = aim(s, cats, eph, &frame, &t, &site)?;
+
+    let train = s.train.clone().unwrap_or_else(|| Train {
+        name: "naked eye".into(),
+        instrument: Instrument::NakedEye(NakedEye::default()),
+        accessories: vec![],
+        mount: Default::default(),
+    });
+    let sky_mu = s.view.sky_mag_arcsec2;
+    let cond = Conditions::default();
+    let optics = figures_for(&train, &cond).map_err(|e| EngineError::Optics(e.to_string()))?;
+
+    let horizontal = to_horizontal(aim.apparent, &site, &t);
+    let ha = hour_angle_rad(aim.apparent.ra_rad, site.lon_rad, &t);
+    let q = parallactic_angle_rad(ha, aim.apparent.dec_rad, site.lat_rad);
+    let state = MountState { parallactic_rad: q, alt_rad: horizontal.alt_rad, pier_side: None, user_rotation_rad: s.view.rotation_deg.to_radians(), dec_rad: Some(aim.apparent.dec_rad) };
+    let view = orient::orientation(&train, &state).map_err(|e| EngineError::Optics(e.to_string()))?;
+    let shown: SkyToScreen = if s.view.north_up { SkyToScreen::chart() } else { view };
+    let orientation = orient::describe(&view, q);
+
+    // The field centre: the target, moved by the volunteer's pan (east, north).
+    let pan = DVec2::new(s.view.pan_arcmin[0], s.view.pan_arcmin[1]) * (1.0f64 / 60.0).to_radians();
+    let center = if pan == DVec2::ZERO { aim.apparent } else { crate::scene::gnomonic_inverse(aim.apparent, pan) };
+
+    let mag_limit = (optics.limiting_mag as f32).min(CATALOG_FLOOR_MAG);
+    let sensor_rotation_rad = train
+        .accessories
+        .iter()
+        .find_map(|a| if let Accessory::Camera(c) = a { Some(c.rotation_deg.to_radians()) } else { None })
+        .unwrap_or(0.0);
+    let mut scene = Scene::for_figures(center, &optics, shown, sensor_rotation_rad);
+    scene.mag_limit = mag_limit;
+
+    // Stars: cone query in the catalog frame, each star to its apparent place.
+    let reach = scene.field_reach_rad() * 1.05 + 2e-4;
+    let icrs_center = frame.to_icrs(center);
+    for id in cats.stars_in_cone(icrs_center, reach, mag_limit) {
+        if let Some((star, epoch)) = cats.star(id) {
+            let p = frame.star(&place_of(star), epoch);
+            if scene.add_star(p, star.vmag, star.bv_or(0.65)) && s.view.labels && star.vmag < 3.5 {
+                let label = cats.star_label(id);
+                if !label.starts_with("HIP") && !label.starts_with("Gaia") {
+                    scene.add_label(p, &label, LabelKind::Star);
+                }
+            }
+        }
+    }
+    // Deep-sky objects overlapping the field.
+    for id in cats.dsos_overlapping(icrs_center, reach) {
+        if let Some(d) = cats.dso(id) {
+            let p = frame.fixed(Equatorial { ra_rad: d.ra_rad, dec_rad: d.dec_rad });
+            let Some(major_arcmin) = d.major_arcmin else { continue };
+            let major = (major_arcmin as f64 / 60.0).to_radians() / 2.0;
+            let minor = (d.minor_arcmin.unwrap_or(major_arcmin) as f64 / 60.0).to_radians() / 2.0;
+            let sb = d.surf_br_mag_arcsec2.unwrap_or(22.0);
+            let label = if s.view.labels { Some(d.designation()) } else { None };
+            scene.add_dso(p, major.max(1e-6), minor.max(1e-6), d.pa_deg.unwrap_or(0.0).to_radians() as f64, dso_look(d.kind), sb, label.as_deref());
+        }
+    }
+
+    // The Sun, the Moon and the planets (with phases, rings and Jupiter's moons).
+    let mut bodies = Vec::new();
+    let (mut sun_alt_rad, mut sun_separation_rad, mut moon_alt_rad) = (None, None, None);
+    let mut moon_nl = 0.0;
+    if let Some(eph) = eph {
+        for b in BodyId::ALL {
+            scene.add_solar_body(eph, b, &t, &site).map_err(|e| EngineError::Solar(e.to_string()))?;
+        }
+        if let Ok(all) = crate::solar::topocentric::all_bodies(eph, &t, &site) {
+            for st in all.iter() {
+                let h = to_horizontal(st.topocentric, &site, &t);
+                match st.body {
+                    BodyId::Sun => {
+                        sun_alt_rad = Some(h.alt_rad);
+                        sun_separation_rad = Some(separation_rad(st.topocentric, aim.apparent));
+                    }
+                    BodyId::Moon => {
+                        moon_alt_rad = Some(h.alt_rad);
+                        if h.alt_rad > 0.0 {
+                            let half_pi = std::f64::consts::FRAC_PI_2;
+                            moon_nl = crate::scene::skylight::moonlight_nl(
+                                st.phase_angle_rad,
+                                separation_rad(st.topocentric, aim.apparent),
+                                half_pi - h.alt_rad,
+                                (half_pi - horizontal.alt_rad).max(0.0),
+                                crate::scene::compose::MOONLIGHT_K_MAG,
+                            );
+                        }
+                    }
+                    _ => {}
+                }
+                if s.view.labels && st.body != BodyId::Sun && scene.in_field(crate::scene::gnomonic(scene.center, st.topocentric).unwrap_or(DVec2::splat(9.0)), 0.0) {
+                    scene.add_label(st.topocentric, body_title(st.body), LabelKind::Body);
+                }
+            }
+            bodies.extend_from_slice(&all);
+        }
+    }
+
+    scene.set_zenith(q);
+    let driven = matches!(train.mount, crate::optics::train::Mount::Equatorial { .. });
+    if !driven {
+        scene.set_sidereal_drift();
+    }
+    scene.set_sky(sky_mu, moon_nl, optics.exit_pupil_mm, cond.eye_pupil_mm);
+    if s.view.labels {
+        scene.add_label(aim.apparent, &aim.name, LabelKind::Target);
+    }
+    Ok(Composed {
+        scene,
+        aim,
+        instant: t,
+        site,
+        train,
+        optics,
+        horizontal,
+        parallactic_rad: q,
+        orientation,
+        bodies,
+        sun_alt_rad,
+        sun_separation_rad,
+        moon_alt_rad,
+        mag_limit,
+    })
+}

@@ -1,0 +1,95 @@
+//! The browser edge: wasm-bindgen exports. The only file that knows it runs in a browser.
+//! Each method wraps `engine::Engine` 1:1; errors become JS `Error`s with the plain message.
+
+use crate::engine::Engine as Core;
+use crate::scenario::Scenario;
+use serde::Serialize;
+use wasm_bindgen::prelude::*;
+
+#[wasm_bindgen(start)]
+pub fn start() {
+    console_error_panic_hook::set_once();
+}
+
+/// Engine version (crate version).
+#[wasm_bindgen]
+pub fn version() -> String {
+    env!("CARGO_PKG_VERSION").to_string()
+}
+
+fn err(e: impl std::fmt::Display) -> JsValue {
+    js_sys::Error::new(&e.to_string()).into()
+}
+
+fn to_js<T: Serialize>(v: &T) -> Result<JsValue, JsValue> {
+    v.serialize(&serde_wasm_bindgen::Serializer::json_compatible()).map_err(err)
+}
+
+fn scenario_from(v: JsValue) -> Result<Scenario, JsValue> {
+    let json: serde_json::Value = serde_wasm_bindgen::from_value(v).map_err(|e| err(format!("the view description could not be read: {e}")))?;
+    Scenario::from_value(json).map_err(err)
+}
+
+#[wasm_bindgen]
+pub struct Engine {
+    core: Core,
+}
+
+#[wasm_bindgen]
+impl Engine {
+    #[wasm_bindgen(constructor)]
+    pub fn new() -> Engine {
+        Engine { core: Core::new() }
+    }
+
+    /// Loads a data file by name (see catalog/README.md); returns what is loaded.
+    #[wasm_bindgen(js_name = loadCatalog)]
+    pub fn load_catalog(&mut self, name: &str, bytes: &[u8]) -> Result<JsValue, JsValue> {
+        to_js(&self.core.load_catalog(name, bytes).map_err(err)?)
+    }
+
+    /// Sets the scenario (plain object), builds the scene, returns the figures.
+    #[wasm_bindgen(js_name = setScenario)]
+    pub fn set_scenario(&mut self, scenario: JsValue) -> Result<JsValue, JsValue> {
+        let s = scenario_from(scenario)?;
+        to_js(&self.core.set_scenario(s).map_err(err)?)
+    }
+
+    pub fn figures(&self) -> Result<JsValue, JsValue> {
+        to_js(&self.core.figures().map_err(err)?)
+    }
+
+    /// Draws into the engine's buffer; returns {ptr, len, width, height, labels}.
+    pub fn render(&mut self, width_px: u32, height_px: u32, dpr: f32) -> Result<JsValue, JsValue> {
+        to_js(&self.core.render(width_px, height_px, dpr).map_err(err)?)
+    }
+
+    pub fn pan(&mut self, dx_px: f32, dy_px: f32) -> Result<JsValue, JsValue> {
+        to_js(&self.core.pan(dx_px, dy_px).map_err(err)?)
+    }
+
+    pub fn zoom(&mut self, step: f32) -> Result<JsValue, JsValue> {
+        to_js(&self.core.zoom(step).map_err(err)?)
+    }
+
+    pub fn resolve(&self, query: &str) -> Result<JsValue, JsValue> {
+        to_js(&self.core.resolve(query).map_err(err)?)
+    }
+
+    #[wasm_bindgen(js_name = encodeLink)]
+    pub fn encode_link(&self, scenario: JsValue) -> Result<String, JsValue> {
+        let s = scenario_from(scenario)?;
+        self.core.encode_link(&s).map_err(err)
+    }
+
+    #[wasm_bindgen(js_name = decodeLink)]
+    pub fn decode_link(&self, link: &str) -> Result<JsValue, JsValue> {
+        to_js(&self.core.decode_link(link).map_err(err)?)
+    }
+}
+
+impl Default for Engine {
+    fn default() -> Self {
+        Engine::new()
+    }
+}

@@ -1,0 +1,94 @@
+//! The engine end to end, natively: real catalog files, a scenario, a frame.
+use nightfield::engine::Engine;
+use nightfield::scenario::Scenario;
+
+fn engine() -> Engine {
+    let mut e = Engine::new();
+    for f in ["stars_bright.nfs", "stars_hip.nfs", "stars_gaia.nfs", "dso_openngc.nfd", "ephemeris.bin"] {
+        let bytes = std::fs::read(format!("{}/catalog/{f}", env!("CARGO_MANIFEST_DIR"))).unwrap();
+        e.load_catalog(f, &bytes).unwrap();
+    }
+    e
+}
+
+fn scenario(target: &str, train: &str, time: &str) -> Scenario {
+    let json = format!(
+        r#"{{"version":1,"site":{{"name":"Hollow Meadow field (demo)","lat_deg":47.05,"lon_deg":8.3,"elev_m":560,"tz":"Europe/Zurich"}},
+        "time_utc":"{time}","train":{train},"target":"{target}","view":{{"labels":true}}}}"#
+    );
+    Scenario::from_json(&json).unwrap()
+}
+
+const REFRACTOR_DIAGONAL: &str = r#"{"instrument":{"kind":"telescope","design":{"type":"refractor"},"aperture_mm":80,"focal_length_mm":600},
+ "accessories":[{"kind":"star_diagonal","prism":"mirror90"},{"kind":"eyepiece","focal_length_mm":25,"apparent_field_deg":52}],"mount":{"kind":"alt_az"}}"#;
+
+fn write_png(name: &str, w: u32, h: u32, rgba: &[u8]) {
+    let dir = format!("{}/tests/out", env!("CARGO_MANIFEST_DIR"));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = std::fs::File::create(format!("{dir}/{name}.png")).unwrap();
+    let mut enc = png::Encoder::new(std::io::BufWriter::new(file), w, h);
+    enc.set_color(png::ColorType::Rgba);
+    enc.set_depth(png::BitDepth::Eight);
+    enc.write_header().unwrap().write_image_data(rgba).unwrap();
+}
+
+#[test]
+fn pleiades_through_a_refractor_with_a_diagonal() {
+    let mut e = engine();
+    let fig = e.set_scenario(scenario("M45", REFRACTOR_DIAGONAL, "2026-12-12T21:00:00Z")).unwrap();
+    // 600 mm / 25 mm = 24× (common practice: magnification = F / f).
+    assert!((fig.magnification.unwrap() - 24.0).abs() < 1e-9);
+    // 52° / 24 ≈ 2.17° (apparent field ÷ magnification).
+    assert!((fig.true_field_deg - 52.0 / 24.0).abs() < 0.01, "{}", fig.true_field_deg);
+    assert!(fig.mirrored, "a mirror diagonal mirrors the view");
+    assert!(fig.alt_deg > 40.0, "M45 is high in a December evening at 47° N: {}", fig.alt_deg);
+    assert!(fig.stars_drawn > 50, "stars drawn: {}", fig.stars_drawn);
+    let info = e.render(512, 512, 1.0).unwrap();
+    assert_eq!(info.len, 512 * 512 * 4);
+    let lit = e.pixels().chunks(4).filter(|p| p[0] > 80 || p[1] > 80 || p[2] > 80).count();
+    assert!(lit > 200, "lit pixels: {lit}");
+    write_png("engine_m45", 512, 512, e.pixels());
+}
+
+#[test]
+fn jupiter_and_the_moon_render() {
+    let mut e = engine();
+    let fig = e.set_scenario(scenario("Jupiter", REFRACTOR_DIAGONAL, "2026-12-12T23:00:00Z")).unwrap();
+    assert_eq!(fig.target_name, "Jupiter");
+    e.render(512, 512, 2.0).unwrap();
+    write_png("engine_jupiter", 512, 512, e.pixels());
+}
+
+#[test]
+fn bad_inputs_give_plain_errors() {
+    let mut e = engine();
+    let mut s = scenario("M45", REFRACTOR_DIAGONAL, "2026-12-12T21:00:00Z");
+    s.site.lat_deg = 91.0;
+    let msg = e.set_scenario(s).unwrap_err().to_string();
+    assert!(msg.contains("latitude"), "{msg}");
+    let msg = e.set_scenario(scenario("Planet Nine", REFRACTOR_DIAGONAL, "2026-12-12T21:00:00Z")).unwrap_err().to_string();
+    assert!(msg.to_lowercase().contains("planet nine"), "{msg}");
+    assert!(Scenario::from_json(r#"{"version":99}"#).unwrap_err().to_string().contains("newer"));
+    assert!(e.decode_link("garbage!!").is_err());
+    assert!(e.load_catalog("stars_hip.nfs", b"NFS1 truncated").is_err());
+}
+
+#[test]
+fn share_link_round_trip() {
+    let e = engine();
+    let s = scenario("M42", REFRACTOR_DIAGONAL, "2026-12-12T22:00:00Z");
+    let link = e.encode_link(&s).unwrap();
+    assert!(link.len() < 1200, "link length {}", link.len());
+    assert_eq!(e.decode_link(&link).unwrap(), s);
+}
+
+#[test]
+fn jupiter_is_in_its_own_scene() {
+    let mut e = engine();
+    e.set_scenario(scenario("Jupiter", REFRACTOR_DIAGONAL, "2026-12-12T23:00:00Z")).unwrap();
+    let c = e.composed().unwrap();
+    let looks: Vec<_> = c.scene.bodies.iter().map(|b| (b.look, b.offset)).collect();
+    assert!(c.scene.bodies.iter().any(|b| b.look == nightfield::scene::BodyLook::Jupiter), "{looks:?}");
+    // Jupiter and four moons.
+    assert_eq!(c.scene.bodies.iter().filter(|b| b.look == nightfield::scene::BodyLook::Satellite).count(), 4);
+}
