@@ -165,6 +165,16 @@ impl Prepared {
         true
     }
 
+    /// Whether target `t` is in clear view at the grid step nearest `utc_jd`.
+    pub fn in_view_at(&self, t: usize, utc_jd: f64) -> bool {
+        let step_d = self.input.step_minutes / 1440.0;
+        let i = libm::round((utc_jd - self.input.start_utc_jd) / step_d);
+        if !(i >= 0.0) || i as usize >= self.steps_utc_jd.len() {
+            return false;
+        }
+        self.tracks.get(t).is_some_and(|tr| tr.clear[i as usize])
+    }
+
     /// Make the plan; `clouded` sectors are closed from `from_utc_jd` on (None: all night).
     pub fn plan(&self, clouded: &[AzSector], from_utc_jd: Option<f64>) -> Plan {
         let inp = &self.input;
@@ -292,6 +302,12 @@ impl Prepared {
         for ev in &inp.events {
             if ev.start_utc_jd >= inp.start_utc_jd && ev.start_utc_jd <= inp.end_utc_jd {
                 let ti = inp.targets.iter().position(|c| c.id == ev.target_id);
+                // Only events that can be watched: the target in view at that time (or not in the plan at all).
+                if let Some(t) = ti {
+                    if !self.in_view_at(t, ev.start_utc_jd) {
+                        continue;
+                    }
+                }
                 timeline.push(TimelineEntry { utc_jd: ev.start_utc_jd, local: local_hhmm(ev.start_utc_jd, off), text: ev.text.clone(), station_index: None, target_index: ti });
             }
         }
@@ -348,8 +364,10 @@ impl Prepared {
                         continue;
                     }
                     let mut score = 10.0 * weight(v.verdict) + tr.alt_rad[m].to_degrees() / 10.0;
-                    if matches!(kind, TargetKind::Moon | TargetKind::Planet) {
-                        score += 12.0; // crowd-pleasers at public nights: common practice
+                    // The Moon and the bright planets are what visitors queue for (common practice).
+                    let bright_body = kind == TargetKind::Moon || (kind == TargetKind::Planet && inp.targets[t].vmag.is_some_and(|m| m < 1.5));
+                    if bright_body {
+                        score += 12.0;
                     }
                     if prev[s] == Some(t) {
                         score += if run[s] < max_run { 4.0 } else { -25.0 };

@@ -73,9 +73,12 @@ pub fn sky_event_words(k: SkyEventKind) -> &'static str {
     }
 }
 
-fn size_words(fill: f64) -> String {
+fn size_words(fill: f64, kind: TargetKind, major_arcmin: f64) -> String {
     if !fill.is_finite() || fill <= 0.0 {
         return String::new();
+    }
+    if kind == TargetKind::Planet && fill <= 0.25 {
+        return format!("a small bright disc, {:.0}″ across", major_arcmin * 60.0);
     }
     if fill > 1.0 {
         "larger than the field".to_string()
@@ -117,6 +120,7 @@ pub fn station_cards(p: &Prepared, targets: &[TargetPlan], stations: &[StationPl
                         .events
                         .iter()
                         .filter(|e| e.target_id == c.id && e.start_utc_jd <= sh.end_utc_jd && e.end_utc_jd.unwrap_or(e.start_utc_jd) >= sh.start_utc_jd)
+                        .filter(|e| p.in_view_at(sh.target_index, e.start_utc_jd))
                         .map(|e| format!("{} {}", local_hhmm(e.start_utc_jd, off), e.text))
                         .collect();
                     CardEntry {
@@ -127,7 +131,7 @@ pub fn station_cards(p: &Prepared, targets: &[TargetPlan], stations: &[StationPl
                         train_label: tr.label.clone(),
                         magnification: tr.magnification,
                         true_field_deg: tr.true_field_deg,
-                        size_words: size_words(fill),
+                        size_words: size_words(fill, c.kind, c.major_arcmin),
                         verdict: sh.verdict,
                         verdict_words: vw,
                         orientation_note: tr.orientation_note.clone(),

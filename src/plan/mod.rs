@@ -19,8 +19,10 @@ pub mod schedule;
 pub mod sky_brightness;
 pub mod talking_points;
 pub mod visibility;
+pub mod wire;
 
 pub use input::*;
+pub use assign::{Showing, StationPlan, StationView, TargetPlan, TimelineEntry};
 pub use schedule::{plan_night, Plan, Prepared};
 
 use core::fmt;

@@ -218,6 +218,16 @@ test('drag pans the view, the wheel steps eyepieces, re-centre restores', async 
   await page.waitForFunction((m) => document.querySelector('#figures').textContent.indexOf(m) < 0, m0);
   const m1 = await mag();
   assert.ok(parseFloat(m1) > parseFloat(m0), `${m0} -> ${m1}`);
+  // Pinch in (two pointers closing): back to lower power.
+  await page.evaluate(({ cx, cy }) => {
+    const c = document.getElementById('view');
+    const ev = (type, id, x) => c.dispatchEvent(new PointerEvent(type, { pointerId: id, clientX: x, clientY: cy, bubbles: true, pointerType: 'touch', isPrimary: id === 1 }));
+    ev('pointerdown', 1, cx - 100); ev('pointerdown', 2, cx + 100);
+    for (let k = 1; k <= 10; k++) { ev('pointermove', 1, cx - 100 + 6 * k); ev('pointermove', 2, cx + 100 - 6 * k); }
+    ev('pointerup', 1, cx - 40); ev('pointerup', 2, cx + 40);
+  }, { cx, cy });
+  await page.waitForFunction((m) => document.querySelector('#figures').textContent.indexOf(m) < 0, m1);
+  assert.ok(parseFloat(await mag()) < parseFloat(m1), 'pinch stepped down');
   assert.deepEqual(errors, []);
 });
 

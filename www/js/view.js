@@ -32,7 +32,7 @@ export function attachGestures(canvas, { onPan, onStep }) {
   const pts = new Map();
   let pinchStart = null;
   canvas.addEventListener('pointerdown', (ev) => {
-    canvas.setPointerCapture(ev.pointerId);
+    try { canvas.setPointerCapture(ev.pointerId); } catch (e) { /* pointer already gone */ }
     pts.set(ev.pointerId, { x: ev.clientX, y: ev.clientY });
     if (pts.size === 2) pinchStart = spread(pts);
   });
