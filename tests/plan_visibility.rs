@@ -152,3 +152,21 @@ fn fast_assessment_equals_the_plain_model() {
     let r = extended_margin_mag(21.6, 30.0, 20.4, &path, F_REFERENCE);
     assert!((a.visitor_margin_mag - v).abs() < 1e-9 && (a.averted_margin_mag - r).abs() < 1e-9, "{a:?} {v} {r}");
 }
+
+#[test]
+fn view_strength_follows_the_verdict() {
+    // The drawn view scales with the same margins: zero when "not visible", rising with the margin.
+    let light = |mu: f64| ExtendedLight { mean_mu_v: mu, area_arcmin2: 30.0, core_area_frac: 0.0, core_gain_mag: 0.0, bv: 1.0 };
+    let path = Eyepath { aperture_mm: 150.0, magnification: 60.0, eye_pupil_mm: 6.0, target_transmission: 0.8, sky_transmission: 0.8 };
+    let mut last = -1.0f32;
+    let mut seen = std::collections::BTreeSet::new();
+    for i in 0..60 {
+        let a = assess(&light(26.0 - 0.15 * i as f64), 0.2, 20.5, 1.0, &path);
+        let s = view_strength(&a);
+        assert!(s >= last, "not monotonic at {i}");
+        assert_eq!(s == 0.0, a.verdict == Verdict::NotVisible);
+        seen.insert(a.verdict);
+        last = s;
+    }
+    assert_eq!(seen.len(), 4, "{seen:?}");
+}

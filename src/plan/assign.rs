@@ -169,7 +169,7 @@ impl Prepared {
     pub fn in_view_at(&self, t: usize, utc_jd: f64) -> bool {
         let step_d = self.input.step_minutes / 1440.0;
         let i = libm::round((utc_jd - self.input.start_utc_jd) / step_d);
-        if !(i >= 0.0) || i as usize >= self.steps_utc_jd.len() {
+        if i.is_nan() || i < 0.0 || i as usize >= self.steps_utc_jd.len() {
             return false;
         }
         self.tracks.get(t).is_some_and(|tr| tr.clear[i as usize])

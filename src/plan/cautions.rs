@@ -98,7 +98,7 @@ pub fn cautions(p: &Prepared, targets: &[TargetPlan], stations: &[StationPlan]) 
             });
         }
     }
-    out.sort_by(|a, b| b.level.cmp(&a.level));
+    out.sort_by_key(|c| core::cmp::Reverse(c.level));
     out
 }
 

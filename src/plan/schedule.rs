@@ -132,6 +132,13 @@ fn eyepath(t: &TrainOption, kind: TargetKind, pupil: f64) -> Eyepath {
     }
 }
 
+/// Verdict for a candidate through one train under one sky: the same call the
+/// planner makes at every step, for the view to draw what the card says
+/// (`extinction_mag` at the target's air mass, `sky_mu` the sky at the target).
+pub fn assess_candidate(c: &Candidate, t: &TrainOption, eye_pupil_mm: f64, moon_phase_deg: f64, extinction_mag: f64, sky_mu: f64) -> Assessment {
+    assess_one(c, light_of(c, moon_phase_deg).as_ref(), t, eye_pupil_mm, extinction_mag, sky_mu)
+}
+
 /// Verdict for a candidate through one train under one sky (stars: point-source limit; Sun: filtered trains only).
 fn assess_one(c: &Candidate, light: Option<&ExtendedLight>, t: &TrainOption, pupil: f64, ext_mag: f64, sky_mu: f64) -> Assessment {
     let path = eyepath(t, c.kind, pupil);

@@ -343,3 +343,18 @@ fn verdict_of(visitor_margin: f64, averted_margin: f64) -> Verdict {
         Verdict::NotVisible
     }
 }
+
+/// How strongly a drawn view should show the object, 0–1, from the same margins
+/// as the verdict (0 = not drawn: "not visible tonight"; 0.15–0.35 averted
+/// vision; 0.35–0.7 visible; 0.7–1 easy). Monotonic in the margins, so a renderer
+/// that scales the object's drawn contrast by it agrees with the words.
+pub fn view_strength(a: &Assessment) -> f32 {
+    let to_averted = 2.5 * libm::log10(F_VISITOR / F_REFERENCE);
+    let s = match a.verdict {
+        Verdict::NotVisible => 0.0,
+        Verdict::AvertedVision => 0.15 + 0.2 * (a.averted_margin_mag / to_averted).clamp(0.0, 1.0),
+        Verdict::Visible => 0.35 + 0.35 * (a.visitor_margin_mag / EASY_MARGIN_MAG).clamp(0.0, 1.0),
+        Verdict::Easy => 0.7 + 0.3 * ((a.visitor_margin_mag - EASY_MARGIN_MAG) / 2.0).clamp(0.0, 1.0),
+    };
+    s as f32
+}

@@ -220,6 +220,7 @@ pub fn draw(scene: &Scene, view: &ViewParams, frame: &mut Frame) -> Result<Vec<L
     // Bands of rows, each finished while it sits in cache: sky, glows, stars,
     // bodies, the dark outside the field and its rim.
     let mut wx = Vec::with_capacity(256);
+    let small = stars::SmallPsf::new(view.dpr);
     let mut next = 0usize;
     let mut active: Vec<u32> = Vec::new();
     let mut y = 0usize;
@@ -234,7 +235,11 @@ pub fn draw(scene: &Scene, view: &ViewParams, frame: &mut Frame) -> Result<Vec<L
         active.retain(|&k| stars[k as usize].y1 as usize > rows.0);
         for &k in &active {
             let s = &stars[k as usize];
-            stars::stamp(&mut cv, s.x, s.y, s.look, s.colour, rows, &mut wx);
+            if small.fits(s.look) {
+                stars::stamp_small(&mut cv, s.x, s.y, s.look.flux, s.colour, rows, &small);
+            } else {
+                stars::stamp(&mut cv, s.x, s.y, s.look, s.colour, rows, &mut wx);
+            }
         }
         bodies::draw_bodies(&mut cv, scene, &t, view.dpr, &pal, rows);
         markers::field_mask(&mut cv, scene, &t, view.dpr, &pal, rows);

@@ -66,6 +66,84 @@ pub fn star_look(vmag: f32, mag_limit: f32, dpr: f32) -> StarLook {
 /// Stamps a star centred at (x, y) (pixel units, pixel i spans [i, i+1)).
 /// Only rows in `rows` = [first, end) are touched (band rendering);
 /// `wx` is scratch space reused across stars.
+/// Sub-pixel phases of the precomputed small-star weights: positions are kept
+/// to 1/128 px for stars drawn at the base width.
+const PHASES: usize = 64;
+const SMALL_N: usize = 6;
+
+/// Pixel weights of the base-width PSF for each sub-pixel phase (one axis):
+/// the first pixel's offset from floor(x) and up to 6 weights.
+pub(crate) struct SmallPsf {
+    pub sigma: f32,
+    ok: bool,
+    off: [i32; PHASES],
+    n: [usize; PHASES],
+    w: [[f32; SMALL_N]; PHASES],
+}
+
+impl SmallPsf {
+    pub fn new(dpr: f32) -> SmallPsf {
+        let tab = cdf_table();
+        let sigma = SIGMA0_PX * dpr;
+        let r = (STAMP_SIGMAS * sigma).max(1.0);
+        let mut p = SmallPsf { sigma, ok: false, off: [0; PHASES], n: [0; PHASES], w: [[0.0; SMALL_N]; PHASES] };
+        for ph in 0..PHASES {
+            let fx = (ph as f32 + 0.5) / PHASES as f32;
+            let a = super::raster::floor_i32(fx - r);
+            let b = super::raster::floor_i32(fx + r) + 1;
+            p.off[ph] = a;
+            p.n[ph] = ((b - a).max(0) as usize).min(SMALL_N);
+            for k in 0..p.n[ph] {
+                let x = (a + k as i32) as f32;
+                p.w[ph][k] = cdf(tab, (x + 1.0 - fx) / sigma) - cdf(tab, (x - fx) / sigma);
+            }
+        }
+        p.ok = p.n.iter().all(|&n| n < SMALL_N);
+        p
+    }
+
+    /// Whether a star of this look can use the table.
+    #[inline]
+    pub fn fits(&self, look: StarLook) -> bool {
+        self.ok && look.sigma_px == self.sigma
+    }
+}
+
+/// Stamps a base-width star from the phase tables (rows clipped to `rows`).
+pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f32; 3], rows: (usize, usize), p: &SmallPsf) {
+    use super::raster::floor_i32;
+    if !(x > -8.0 && y > -8.0 && x < cv.w as f32 + 8.0 && y < cv.h as f32 + 8.0) {
+        return;
+    }
+    let (ix, iy) = (floor_i32(x), floor_i32(y));
+    let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
+    let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
+    let (s2l, l2s) = (&cv.luts.s2l, &cv.luts.l2s);
+    let w4 = cv.w * 4;
+    let wx = &p.w[phx];
+    let x0 = ix + p.off[phx];
+    for (j, wy) in p.w[phy].iter().take(p.n[phy]).enumerate() {
+        let yy = iy + p.off[phy] + j as i32;
+        if yy < rows.0 as i32 || yy >= rows.1 as i32 || yy >= cv.h as i32 {
+            continue;
+        }
+        let ky = wy * flux;
+        if ky < 1.0 / 2048.0 {
+            continue;
+        }
+        let row = yy as usize * w4;
+        for (i, w) in wx.iter().take(p.n[phx]).enumerate() {
+            let xx = x0 + i as i32;
+            let k = ky * w;
+            if xx < 0 || xx >= cv.w as i32 || k < 1.0 / 2048.0 {
+                continue;
+            }
+            let at = row + xx as usize * 4;
+            super::raster::add_px(&mut cv.px[at..at + 4], s2l, l2s, colour, k);
+        }
+    }
+}
+
 /// Stamp reach in pixels from the centre.
 pub fn stamp_radius_px(look: StarLook) -> f32 {
     (STAMP_SIGMAS * look.sigma_px).max(1.0)
