@@ -109,7 +109,7 @@ impl fmt::Display for SolarError {
             ),
             SolarError::BadSite => write!(
                 f,
-                "site must have latitude −90° to 90°, longitude −180° to 180° and a plausible elevation"
+                "site must have latitude −90° to 90°, longitude −180° to 180° and elevation −500 to 9000 m"
             ),
         }
     }

@@ -15,10 +15,7 @@ fn check(t: &Instant, site: &Site) -> Result<(), SolarError> {
     if !(t.tt_jd.is_finite() && t.ut1_jd.is_finite()) {
         return Err(SolarError::NotFinite { field: "instant" });
     }
-    if !(site.lat_rad.is_finite() && site.lon_rad.is_finite() && site.elev_m.is_finite()) {
-        return Err(SolarError::NotFinite { field: "site" });
-    }
-    Ok(())
+    crate::sky::horizon::validate_site(site).map_err(|_| SolarError::BadSite)
 }
 
 /// The frame of one instant and site: NPB matrix and the site's GCRS position/velocity.
