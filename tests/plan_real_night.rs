@@ -125,3 +125,24 @@ fn print_real_night() {
     }
     println!("{}", serde_json::to_string_pretty(&plan.cards[1].entries.first()).unwrap());
 }
+
+#[test]
+fn stations_from_optics_trains() {
+    use nightfield::plan::height::{eyepiece_height_m, MountKind};
+    let p = |id: &str| presets().into_iter().find(|p| p.id == id).unwrap().train;
+    let dob = station_from_trains("Reflector", &[p("newtonian_200_1200_rocker")], &[]).unwrap();
+    assert_eq!(dob.mount.kind, MountKind::DobsonianRocker);
+    // Common practice: a 200/1200 rocker-mounted reflector puts the eyepiece about 1.3 m up at the zenith.
+    let h = eyepiece_height_m(&dob.mount, std::f64::consts::FRAC_PI_2);
+    assert!((1.2..1.45).contains(&h), "{h}");
+    assert_eq!(dob.trains.len(), 1);
+    assert!((dob.trains[0].magnification - 48.0).abs() < 1e-9 && !dob.trains[0].solar_filtered);
+    let refr = station_from_trains("Refractor", &[p("refractor_80_600")], &[]).unwrap();
+    assert_eq!(refr.mount.kind, MountKind::TripodRefractor);
+    assert!(refr.mount.up_offset_mm > 0.0, "a star diagonal lifts the eyepiece off the tube axis");
+    // Camera trains are not visual: no option for the planner.
+    let cam = station_from_trains("Camera", &[p("refractor_80_480_camera")], &[]).unwrap();
+    assert!(cam.trains.is_empty());
+    let sct = station_from_trains("SCT", &[p("schmidt_cassegrain_203_2032")], &[]).unwrap();
+    assert_eq!(sct.mount.kind, MountKind::Equatorial);
+}

@@ -107,3 +107,18 @@ proptest! {
         }
     }
 }
+
+/// Scenes holding non-finite values (a corrupt input upstream) still draw without panicking.
+#[test]
+fn non_finite_scene_values_do_not_panic() {
+    let mut s = scene();
+    s.stars.push(SceneStar { offset: DVec2::new(f64::NAN, 0.0), vmag: f32::NAN, bv: f32::INFINITY });
+    s.dsos.push(nightfield::scene::SceneDso { offset: DVec2::new(f64::NAN, 1.0), semi_major: DVec2::new(f64::INFINITY, 0.0), semi_minor: DVec2::ZERO, look: DsoLook::Galaxy, surf_br_mag_arcsec2: f32::NAN });
+    s.bodies.push(nightfield::scene::SceneBody {
+        look: nightfield::scene::BodyLook::Moon, offset: DVec2::new(0.0, f64::NAN), radius_rad: f64::NAN, polar_ratio: f64::NAN,
+        pole_dir: DVec2::ZERO, bright_limb_dir: DVec2::new(f64::NAN, 0.0), phase_angle_rad: f64::NAN, vmag: f32::NAN, rings: None,
+    });
+    s.markers.zenith_dir = Some(DVec2::new(f64::NAN, f64::NAN));
+    let mut f = Frame::default();
+    assert!(draw(&s, &ViewParams { width_px: 128, height_px: 128, ..ViewParams::default() }, &mut f).is_ok());
+}

@@ -4,7 +4,9 @@
 //! `solar` (sampled tracks), Jupiter's moon events as timed events.
 
 use super::input::{Candidate, Filter, TargetKind, TargetPosition, TimedEvent, TrackPoint, TrainOption};
-use crate::optics::{self, Accessory, FilterKind, Mode, OpticsError, Train};
+use super::height::{MountGeometry, MountKind};
+use super::input::Station;
+use crate::optics::{self, Accessory, Design, FilterKind, Instrument, Mode, Mount, OpticsError, Train};
 use crate::sky::dso::{Dso, DsoKind};
 use crate::sky::frames::{npb_matrix, ra_dec_of, unit_vector};
 use crate::sky::Site;
@@ -209,4 +211,58 @@ pub fn jupiter_timed_events(eph: &Ephemeris, start_utc_jd: f64, end_utc_jd: f64)
             TimedEvent { target_id: "jupiter".to_string(), start_utc_jd: e.tt_jd - tt_minus_utc, end_utc_jd: None, text }
         })
         .collect())
+}
+
+/// Typical eyepiece geometry for a train's instrument and mount, scaled from the
+/// presets in `height.rs` by focal length or aperture (common practice; the user
+/// can measure and override): a Newtonian on an alt-azimuth mount sits in a rocker
+/// box, a refractor on a tripod with a diagonal, a Cassegrain on a fork.
+pub fn mount_geometry_for(train: &Train) -> MountGeometry {
+    let diagonal = train.accessories.iter().any(|a| matches!(a, Accessory::StarDiagonal(_)));
+    let eq = matches!(train.mount, Mount::Equatorial { .. });
+    match &train.instrument {
+        Instrument::Telescope(t) => {
+            let fl = t.focal_length_mm.clamp(100.0, 5000.0);
+            let ap = t.aperture_mm.clamp(20.0, 1000.0);
+            let up = if diagonal { 90.0 } else { 0.0 };
+            match t.design {
+                Design::Newtonian { .. } if !eq => MountGeometry {
+                    kind: MountKind::DobsonianRocker,
+                    pivot_height_mm: 0.43 * fl,
+                    along_tube_mm: 0.67 * fl,
+                    up_offset_mm: 0.0,
+                },
+                Design::Newtonian { .. } => MountGeometry { kind: MountKind::Equatorial, pivot_height_mm: 1200.0, along_tube_mm: 0.5 * fl, up_offset_mm: 0.0 },
+                Design::Refractor => MountGeometry {
+                    kind: if eq { MountKind::Equatorial } else { MountKind::TripodRefractor },
+                    pivot_height_mm: 1250.0,
+                    along_tube_mm: -0.63 * fl,
+                    up_offset_mm: up,
+                },
+                _ => MountGeometry {
+                    kind: if eq { MountKind::Equatorial } else { MountKind::ForkCassegrain },
+                    pivot_height_mm: 1150.0,
+                    along_tube_mm: -1.4 * ap,
+                    up_offset_mm: if diagonal { 100.0 } else { 0.0 },
+                },
+            }
+        }
+        // Hand-held or small instruments: at the eye of a standing adult.
+        _ => MountGeometry { kind: MountKind::TripodRefractor, pivot_height_mm: 1450.0, along_tube_mm: 0.0, up_offset_mm: 0.0 },
+    }
+}
+
+/// A planner station from a name and the station's trains (one per eyepiece):
+/// visual trains only; the geometry from the first telescope train.
+pub fn station_from_trains(name: &str, trains: &[Train], orientation_notes: &[String]) -> Result<Station, OpticsError> {
+    let mut options = Vec::new();
+    for (i, t) in trains.iter().enumerate() {
+        let label = if t.name.is_empty() { format!("train {}", i + 1) } else { t.name.clone() };
+        let note = orientation_notes.get(i).map(String::as_str).unwrap_or("");
+        if let Some(o) = train_option(t, &label, note)? {
+            options.push(o);
+        }
+    }
+    let mount = trains.first().map(mount_geometry_for).unwrap_or_else(MountGeometry::refractor_80_600_tripod);
+    Ok(Station { name: name.to_string(), mount, trains: options })
 }

@@ -86,6 +86,9 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
     let sky = pal.map(background::sky_colour(&scene.sky));
     let mut wx = Vec::new();
     for b in &scene.bodies {
+        if !(b.offset.is_finite() && b.radius_rad.is_finite() && b.radius_rad >= 0.0) {
+            continue;
+        }
         let r_px = (b.radius_rad * t.px_per_rad) as f32;
         if r_px < 1.0 * dpr || b.look == BodyLook::Satellite && r_px < 2.0 * dpr {
             let (x, y) = t.to_px(b.offset);

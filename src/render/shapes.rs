@@ -113,7 +113,7 @@ fn ellipse_px(d: &SceneDso, t: &ViewTransform) -> Option<Ellipse> {
     let a = t.m * d.semi_major;
     let b = t.m * d.semi_minor;
     let det = a.x * b.y - b.x * a.y;
-    if det.abs() < 1e-9 {
+    if !(det.abs() >= 1e-9) || !d.offset.is_finite() || !det.is_finite() {
         return None;
     }
     let (cx, cy) = t.to_px(d.offset);

@@ -23,7 +23,7 @@ pub fn moonlight_nl(phase_angle_rad: f64, separation_rad: f64, moon_zd_rad: f64,
     }
     let alpha = phase_angle_rad.abs().to_degrees().min(180.0);
     let rho = separation_rad.abs().to_degrees().clamp(0.5, 180.0);
-    let istar = libm::pow(10.0, -0.4 * (3.84 + 0.026 * alpha + 4e-9 * alpha.powi(4)));
+    let istar = libm::pow(10.0, -0.4 * (3.84 + 0.026 * alpha + 4e-9 * (alpha * alpha) * (alpha * alpha)));
     let cr = libm::cos(rho.to_radians());
     let f_rho = libm::pow(10.0, 5.36) * (1.06 + cr * cr) + libm::pow(10.0, 6.15 - rho / 40.0);
     let x = |zd: f64| {

@@ -153,11 +153,15 @@ const app = {
     }
     const eng2 = this.host.secondary('compare');
     const sc = toScenario(this.state, over);
-    this.host.call((e) => e.setScenario(sc), eng2);
+    const f2 = this.host.call((e) => e.setScenario(sc), eng2);
+    // Same angular scale as the main view: the engine fits each field to its canvas, so zoom the
+    // second by the ratio of true fields (zoom steps are 2^(step/4)).
+    const tf1 = this.figures?.true_field_deg, tf2 = f2?.true_field_deg;
+    if (tf1 > 0 && tf2 > 0 && Math.abs(tf2 / tf1 - 1) > 1e-9) this.host.call((e) => e.zoom(4 * Math.log2(tf2 / tf1)), eng2);
     paint(this.host, eng2, $('view2'), night, this.state.view.labels !== false);
     const s2 = this.state.kit.stations.find((s) => s.id === (over.stationId || st.id));
     const ep2 = this.state.kit.items.find((i) => i.id === s2.eyepieces[over.eyepieceIndex]);
-    $('view2-caption').textContent = `${s2.name}${ep2 ? ` · ${ep2.name}` : ''}`;
+    $('view2-caption').textContent = `${s2.name}${ep2 ? ` · ${ep2.name}` : ''} (same scale)`;
   },
 
   linkFor() {
