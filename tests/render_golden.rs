@@ -152,6 +152,20 @@ fn golden_saturn() {
     render_util::check_golden("saturn", &render(&s, "saturn"));
 }
 
+/// The Pleiades through the 80/480 refractor with a camera (sensor 23.5×15.6 mm),
+/// shown in the chart view: the sensor frame appears turned by the mount's
+/// frame against north-up (equatorial mount: the frame's turn is fixed on the sky).
+#[test]
+fn golden_camera_frame_chart_view() {
+    let when = (2027, 1, 10, 20, 0);
+    let s = scene_for(&train("refractor_80_480_camera", None), j2000(3.7914, 24.105, when), when, 20.5, "M45");
+    assert!(matches!(s.field, nightfield::scene::FieldEdge::Polygon { .. }));
+    let view = ViewParams { width_px: 512, height_px: 384, chart_view: true, ..ViewParams::default() };
+    let mut f = Frame::default();
+    draw(&s, &view, &mut f).unwrap();
+    render_util::check_golden("camera_frame_chart", &f);
+}
+
 /// Zoomed looks at the planets, written to tests/out/ for the eye (not compared).
 #[test]
 #[ignore]

@@ -161,3 +161,20 @@ fn transit_and_shadow_events_bracket_the_states_they_name() {
     }
     assert!(checked >= 3, "only {checked} transits/shadow transits found");
 }
+
+#[test]
+fn utc_wrappers_shift_by_tt_minus_utc() {
+    use nightfield::solar::{jupiter_moon_events, red_spot_transits_utc};
+    use nightfield::time::Instant;
+    let e = eph();
+    let a = Instant::from_utc_jd(2_460_600.5).unwrap();
+    let b = Instant::from_utc_jd(2_460_601.5).unwrap();
+    let off = a.tt_jd - a.utc_jd;
+    // TT − UTC = 32.184 s + 37 leap seconds in 2024 (IERS, common practice).
+    assert!((off * 86_400.0 - 69.184).abs() < 1e-3);
+    for ev in jupiter_moon_events(&e, &a, &b).unwrap() {
+        assert!((ev.event.tt_jd - ev.utc_jd - off).abs() < 1e-12);
+    }
+    let g = red_spot_transits_utc(&e, &a, &b, 1.0).unwrap();
+    assert_eq!(g, grs_transits_tt(&e, a.tt_jd, b.tt_jd, 1.0).unwrap().iter().map(|t| t - off).collect::<Vec<_>>());
+}

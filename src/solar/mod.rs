@@ -22,7 +22,8 @@ pub mod topocentric;
 pub use ephemeris::{Ephemeris, EphemerisError, OutOfCoverage, Series, AU_KM};
 pub use state::{body_state_from, BodyState};
 pub use topocentric::{
-    all_bodies, apparent_place, body_apparent, body_horizontal, galilean_moons_at, moon_at, night_track, saturn_rings_at,
+    all_bodies, apparent_place, body_apparent, body_horizontal, galilean_moons_at, jupiter_moon_events, moon_at, night_track,
+    red_spot_transits_utc, saturn_rings_at, TimedMoonEvent,
 };
 
 use serde::{Deserialize, Serialize};

@@ -34,7 +34,7 @@ pub fn saturn_rings(saturn: &Apparent) -> RingGeometry {
     let b = sub_latitude_rad(pole, -saturn.astrometric_au);
     let bs = sub_latitude_rad(pole, -saturn.heliocentric_au);
     let p = position_angle_rad(saturn.dir_gcrs, pole, saturn.pole_of_date());
-    let major = 2.0 * (RING_A_OUTER_KM / (saturn.distance_au() * AU_KM)).atan().to_degrees() * 3600.0;
+    let major = 2.0 * libm::atan(RING_A_OUTER_KM / (saturn.distance_au() * AU_KM)).to_degrees() * 3600.0;
     RingGeometry {
         earth_tilt_rad: b,
         sun_tilt_rad: bs,

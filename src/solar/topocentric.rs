@@ -92,3 +92,27 @@ pub fn moon_at(eph: &Ephemeris, t: &Instant, site: &Site) -> Result<(super::moon
     let (name, age) = super::moon::moon_phase(eph, t.tt_jd)?;
     Ok((face, name, age))
 }
+
+/// A Galilean-moon event with its UTC time.
+#[derive(Clone, Copy, Debug, PartialEq, serde::Serialize, serde::Deserialize)]
+pub struct TimedMoonEvent {
+    pub event: super::jupiter_events::MoonEvent,
+    pub utc_jd: f64,
+}
+
+/// Galilean-moon events between two instants (at most 3 days), with UTC times
+/// (TT − UTC taken from `start`; it does not change within a night).
+pub fn jupiter_moon_events(eph: &Ephemeris, start: &Instant, end: &Instant) -> Result<Vec<TimedMoonEvent>, SolarError> {
+    let off = start.tt_jd - start.utc_jd;
+    Ok(super::jupiter_events::moon_events(eph, start.tt_jd, end.tt_jd)?
+        .into_iter()
+        .map(|event| TimedMoonEvent { event, utc_jd: event.tt_jd - off })
+        .collect())
+}
+
+/// UTC Julian dates when a System II longitude (the Great Red Spot's, set by
+/// the user) crosses Jupiter's central meridian between two instants.
+pub fn red_spot_transits_utc(eph: &Ephemeris, start: &Instant, end: &Instant, grs_lon_ii_rad: f64) -> Result<Vec<f64>, SolarError> {
+    let off = start.tt_jd - start.utc_jd;
+    Ok(super::jupiter::grs_transits_tt(eph, start.tt_jd, end.tt_jd, grs_lon_ii_rad)?.into_iter().map(|t| t - off).collect())
+}
