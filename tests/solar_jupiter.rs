@@ -47,7 +47,7 @@ fn galilean_offsets_match_pyephem() {
 
 #[test]
 fn central_meridian_ii_matches_pyephem() {
-    // PyEphem's cmlII runs a steady 0.7–0.9° above ours (a different node or
+    // Ours runs a steady 0.7–0.9° above PyEphem's cmlII (a different node or
     // epoch convention for System II; ~1.3 min of transit time): bar 1°.
     let e = eph();
     let fx = fixture();

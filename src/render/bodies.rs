@@ -148,34 +148,61 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
                 let ring_lit = pal.map([0.86, 0.80, 0.64]);
                 let s2l = &luts().s2l;
                 const SS: usize = 3;
+                // Colour of one sample point, and whether Saturn covers it.
+                let sample = |px: f32, py: f32, under: [f32; 3]| -> ([f32; 3], bool) {
+                    let (a, bb) = disc.local(px, py);
+                    // Ring-plane radius (equatorial radii) from the screen
+                    // point: the pole axis is foreshortened by sin B.
+                    let pole_px = bb * disc.pr;
+                    let rho = libm::sqrtf(a * a + (pole_px / sb) * (pole_px / sb));
+                    let (ring_a, front) = (ring_opacity(rho), pole_px * sb < 0.0);
+                    let on_globe = a * a + bb * bb < 1.0;
+                    let mut c = under;
+                    let mut any = false;
+                    if on_globe {
+                        c = shade(a, bb);
+                        any = true;
+                    }
+                    if ring_a > 0.0 && (front || !on_globe) {
+                        for ch in 0..3 {
+                            c[ch] = c[ch] * (1.0 - ring_a) + (sky[ch] + ring_lit[ch] * ring_a.min(0.9)) * ring_a;
+                        }
+                        any = true;
+                    }
+                    (c, any)
+                };
+                // Largest change per pixel of the ring radius and of the globe radius:
+                // pixels farther than that from every edge need one sample only.
+                let g_rho = 1.5 / (disc.r * sb.abs());
+                let g_globe = 1.5 / (disc.r * disc.pr);
                 for y in y0..y1 {
                     for x in x0..x1 {
+                        let (pcx, pcy) = (x as f32 + 0.5, y as f32 + 0.5);
+                        let (a, bb) = disc.local(pcx, pcy);
+                        let pole_px = bb * disc.pr;
+                        let rho = libm::sqrtf(a * a + (pole_px / sb) * (pole_px / sb));
+                        let rg = libm::sqrtf(a * a + bb * bb);
+                        if rho - g_rho > RING_EDGES[4] && rg - g_globe > 1.0 {
+                            continue;
+                        }
+                        let near = (rg - 1.0).abs() <= g_globe || RING_EDGES.iter().any(|e| (rho - e).abs() <= g_rho);
                         let i = cv.idx(x, y);
                         let under = [s2l[cv.px[i] as usize], s2l[cv.px[i + 1] as usize], s2l[cv.px[i + 2] as usize]];
+                        if !near {
+                            let (c, any) = sample(pcx, pcy, under);
+                            if any {
+                                cv.blend(i, c, 1.0);
+                            }
+                            continue;
+                        }
                         let mut acc = [0.0f32; 3];
                         let mut any = false;
                         for sy in 0..SS {
                             for sx in 0..SS {
                                 let px = x as f32 + (sx as f32 + 0.5) / SS as f32;
                                 let py = y as f32 + (sy as f32 + 0.5) / SS as f32;
-                                let (a, bb) = disc.local(px, py);
-                                // Ring-plane radius (equatorial radii) from the screen
-                                // point: the pole axis is foreshortened by sin B.
-                                let pole_px = bb * disc.pr;
-                                let rho = libm::sqrtf(a * a + (pole_px / sb) * (pole_px / sb));
-                                let (ring_a, front) = (ring_opacity(rho), pole_px * sb < 0.0);
-                                let on_globe = a * a + bb * bb < 1.0;
-                                let mut c = under;
-                                if on_globe {
-                                    c = shade(a, bb);
-                                    any = true;
-                                }
-                                if ring_a > 0.0 && (front || !on_globe) {
-                                    for ch in 0..3 {
-                                        c[ch] = c[ch] * (1.0 - ring_a) + (sky[ch] + ring_lit[ch] * ring_a.min(0.9)) * ring_a;
-                                    }
-                                    any = true;
-                                }
+                                let (c, hit) = sample(px, py, under);
+                                any |= hit;
                                 for ch in 0..3 {
                                     acc[ch] += c[ch];
                                 }
@@ -198,6 +225,9 @@ fn smooth_band(z: f32, a: f32, b: f32) -> f32 {
     let down = ((b + e - z) / (2.0 * e)).clamp(0.0, 1.0);
     up.min(down)
 }
+
+/// Ring edges (equatorial radii), see [`ring_opacity`].
+const RING_EDGES: [f32; 5] = [1.239, 1.527, 1.951, 2.027, 2.269];
 
 /// Opacity of Saturn's rings at ring-plane radius ρ (equatorial radii):
 /// C ring 1.239–1.527, B ring 1.527–1.951, Cassini division 1.951–2.027,
