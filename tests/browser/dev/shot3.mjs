@@ -1,0 +1,20 @@
+// Dev helper: phone station editor and the shared-link banner.
+import { chromium } from 'playwright-core';
+import { startServer } from '../server.mjs';
+const s = await startServer();
+const b = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu'] });
+const ctx = await b.newContext({ viewport: { width: 390, height: 844 } });
+const p = await ctx.newPage();
+p.on('dialog', (d) => d.accept());
+await p.goto(s.url);
+await p.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 });
+await p.click('#tab-share');
+const link = await p.inputValue('#share-link');
+await p.click('#tab-kit');
+await p.click('li[data-item="ep-6"] >> text=Remove');
+await p.click('li[data-station="st-2"] >> text=Edit');
+await p.locator('#station-form').screenshot({ path: '/tmp/shot-station.png' });
+await p.goto(link); await p.reload();
+await p.waitForFunction(() => document.documentElement.dataset.ready === '1', null, { timeout: 60000 });
+await p.screenshot({ path: '/tmp/shot-banner.png' });
+await b.close(); await s.close();
