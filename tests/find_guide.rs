@@ -137,3 +137,25 @@ fn up_pa_is_the_zenith_position_angle_of_date() {
         }
     }
 }
+
+/// Landmarks from the solar module and the named bright stars. Check values:
+/// Jupiter shines between about −2.9 and −1.6 (common practice); Vega and
+/// Arcturus are among the IAU-named stars brighter than mag 0.5.
+#[test]
+fn solar_and_named_landmarks() {
+    let eph = nightfield::solar::Ephemeris::decode(include_bytes!("../catalog/ephemeris.bin")).unwrap();
+    let cat = decode_stars(BRIGHT).unwrap();
+    let (site, t, _) = cases().remove(0);
+    let sol = solar_landmarks(&eph, &site, &t);
+    assert_eq!(sol.len(), 6);
+    let jup = sol.iter().find(|l| l.name == "Jupiter").unwrap();
+    assert!(jup.vmag > -3.0 && jup.vmag < -1.5, "{}", jup.vmag);
+    let named = named_star_landmarks(&cat, 0.5, &site, &t);
+    assert!(named.iter().any(|l| l.name == "Vega") && named.iter().any(|l| l.name == "Arcturus"));
+    assert!(named.iter().all(|l| l.vmag <= 0.5));
+    // Pointing at Jupiter itself: the nearest landmark is another one, never Jupiter.
+    let mut all = sol.clone();
+    all.extend(named);
+    let p = pointing_words(jup.pos, &all, LandmarkRule { max_vmag: 2.5, min_alt_rad: -1.0 }).unwrap();
+    assert_ne!(p.from_landmark.unwrap().name, "Jupiter");
+}

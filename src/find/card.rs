@@ -48,9 +48,16 @@ pub struct FindCard {
     pub dials: DialReading,
 }
 
-/// Build the card (see module doc). Routes use zenith/horizon words.
+/// Air pressure and temperature for refraction when the card has none
+/// (a standard night: 1010 hPa, 10 °C).
+pub const STANDARD_PRESSURE_HPA: f64 = 1010.0;
+pub const STANDARD_TEMP_C: f64 = 10.0;
+
+/// Build the card (see module doc). Pointing words and dial readings use the
+/// refracted altitude (`sky::refraction`, standard night air): where the
+/// tube must point. Routes use zenith/horizon words.
 pub fn find_card(req: &CardRequest) -> Result<FindCard, FindError> {
-    let hz = to_horizontal(req.target_apparent, &req.site, &req.t);
+    let hz = crate::sky::refraction::refracted(to_horizontal(req.target_apparent, &req.site, &req.t), STANDARD_PRESSURE_HPA, STANDARD_TEMP_C);
     let pointing = pointing_words(hz, req.landmarks, LandmarkRule::default())?;
     let up = up_pa_rad(req.target_apparent, &req.site, &req.t);
     let finder_view = req.finder.view(up, req.main_true_field_rad, (0.0, 0.0), req.naked_eye_limit_mag)?;

@@ -74,3 +74,35 @@ pub fn apparent_to_catalog_frame(app: Equatorial, t: &Instant) -> Equatorial {
     let (ra_rad, dec_rad) = ra_dec_of(v);
     Equatorial { ra_rad, dec_rad }
 }
+
+/// Landmarks from the solar system: the Moon and the naked-eye planets at
+/// their topocentric apparent places (solar module, DE421), with their
+/// visual magnitudes. Bodies outside the ephemeris' coverage are left out.
+pub fn solar_landmarks(eph: &crate::solar::Ephemeris, site: &Site, t: &Instant) -> Vec<Landmark> {
+    use crate::solar::{body_apparent, BodyId};
+    let bodies = [
+        (BodyId::Moon, "the Moon"),
+        (BodyId::Venus, "Venus"),
+        (BodyId::Jupiter, "Jupiter"),
+        (BodyId::Mars, "Mars"),
+        (BodyId::Saturn, "Saturn"),
+        (BodyId::Mercury, "Mercury"),
+    ];
+    bodies
+        .iter()
+        .filter_map(|&(b, name)| {
+            let s = body_apparent(eph, b, t, site).ok()?;
+            Some(apparent_landmark(name, s.topocentric, s.vmag, site, t))
+        })
+        .collect()
+}
+
+/// Landmarks from the named bright stars of a catalog tier (IAU names via
+/// `sky::names`), brighter than `max_vmag`.
+pub fn named_star_landmarks(cat: &crate::sky::catalog::StarCatalog, max_vmag: f64, site: &Site, t: &Instant) -> Vec<Landmark> {
+    cat.stars
+        .iter()
+        .filter(|s| s.hip != 0 && (s.vmag as f64) <= max_vmag)
+        .filter_map(|s| crate::sky::names::name_for_hip(s.hip).map(|n| star_landmark(n, s, cat.epoch_jyear, site, t)))
+        .collect()
+}
