@@ -10,6 +10,9 @@
 //! Positions must all be in one frame (the catalog's); proper motion over a
 //! few decades is far below a finder's resolution and is ignored here.
 
+// `!(a <= b)` is deliberate: it is true for NaN, which must be refused too.
+#![allow(clippy::neg_cmp_op_on_partial_ord)]
+
 use super::finder::Finder;
 use super::legs::{legs, Leg};
 use super::geom::{offset_by, pa_rad, sep_rad, unit, wrap_2pi};
@@ -254,7 +257,7 @@ pub fn plan_route_named(
     check("edge margin", rules.edge_margin, 0.0, 0.9, "between 0 and 0.9")?;
     check("visibility margin", rules.visibility_margin_mag, 0.0, 5.0, "between 0 and 5 mag")?;
     check("finder limiting magnitude", finder_limit_mag, -2.0, 20.0, "between -2 and 20")?;
-    check("target declination", target.dec_rad, -1.5708, 1.5708, "between -90° and 90° (in radians)")?;
+    check("target declination", target.dec_rad, -core::f64::consts::FRAC_PI_2, core::f64::consts::FRAC_PI_2, "between -90° and 90° (in radians)")?;
     check("target right ascension", target.ra_rad, -1e3, 1e3, "a finite angle in radians")?;
     let s0 = stars[start];
     if !(s0.ra_rad.is_finite() && s0.dec_rad.is_finite()) {
@@ -450,7 +453,7 @@ fn landing_words(stars: &[HopStar], nodes: &Nodes, grid: &Grid, vs: &[DVec3], no
         if o.vmag < me.vmag {
             brightest = false;
         }
-        if dsep <= pair_rad && (o.vmag - me.vmag).abs() <= 0.5 && pair.map_or(true, |p| dsep < p.1) {
+        if dsep <= pair_rad && (o.vmag - me.vmag).abs() <= 0.5 && pair.is_none_or(|p| dsep < p.1) {
             pair = Some((sj, dsep));
         }
     });

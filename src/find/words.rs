@@ -7,6 +7,9 @@
 //! the knuckles ≈ 10°, a spread hand (thumb tip to little-finger tip) ≈ 20°.
 //! Nightfield counts in fingers up to about 7° and in fists (halves) above.
 
+// `!(a <= b)` is deliberate: it is true for NaN, which must be refused too.
+#![allow(clippy::neg_cmp_op_on_partial_ord)]
+
 use super::geom::{hz_as_sph, pa_rad, sep_rad, wrap_2pi};
 use super::{check, FindError};
 use crate::sky::Horizontal;
@@ -217,7 +220,7 @@ pub fn direction_words(from: Horizontal, to: Horizontal) -> (f64, &'static str) 
 
 /// The nearest qualifying landmark to `target` (ties: the brighter, then the
 /// first listed). A landmark closer than 0.1° is the target itself and is skipped.
-pub fn nearest_landmark<'a>(target: Horizontal, landmarks: &'a [Landmark], rule: LandmarkRule) -> Option<(&'a Landmark, f64)> {
+pub fn nearest_landmark(target: Horizontal, landmarks: &[Landmark], rule: LandmarkRule) -> Option<(&Landmark, f64)> {
     let mut best: Option<(&Landmark, f64)> = None;
     for l in landmarks {
         if !(l.vmag <= rule.max_vmag) || !(l.pos.alt_rad >= rule.min_alt_rad) {
