@@ -43,10 +43,12 @@ native-test:
 fixtures:
 	@shopt -s nullglob
 	for f in tests/fixtures/gen_*.py; do echo "[fixtures] $$f --check"; python3 "$$f" --check; done
+	echo "[fixtures] catalog/build.py --check (committed catalog files = a fresh build)"; python3 catalog/build.py --check
+	echo "[fixtures] catalog/build_ephemeris.py --check"; python3 catalog/build_ephemeris.py --check
 
 browser-test: wasm
 	@echo "[test] browser tests (headless Chromium)"
-	if [ -f tests/browser/package.json ]; then cd tests/browser && node --test; else echo "no browser tests yet"; exit 1; fi
+	if [ -f tests/browser/package.json ]; then cd tests/browser && node --test --test-concurrency=1; else echo "no browser tests yet"; exit 1; fi
 
 ## Size budgets (wasm < 300 KB gzipped; everything offline < 6 MB gzipped).
 sizes: wasm
