@@ -39,7 +39,7 @@ setup_wasm() {
   if [ -f "$TOOLS/wasm.env" ]; then
     # shellcheck disable=SC1091
     . "$TOOLS/wasm.env"
-    if [ -x "$WASM_CARGO" ]; then say "wasm toolchain: $WASM_HOW (cached in .tools/wasm.env)"; else rm -f "$TOOLS/wasm.env"; fi
+    if [ -x "${WASM_CARGO:-}" ] && [ -n "${WASM_TARGET_DIR:-}" ] && [ -n "${WASM_RUSTC:-}" ]; then say "wasm toolchain: $WASM_HOW (cached in .tools/wasm.env)"; else rm -f "$TOOLS/wasm.env"; fi
   fi
   if [ ! -f "$TOOLS/wasm.env" ]; then
     # 1. an already-installed rustup wasm32 target; 2. rustup target add (short timeout: it can hang

@@ -3,6 +3,7 @@
 //! Module map only; each module's doc says its job and invariants
 //! (see DEVELOPERS.md for the bird's-eye view).
 
+pub mod bench;
 pub mod engine;
 pub mod find;
 pub mod optics;

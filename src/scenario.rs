@@ -243,3 +243,46 @@ impl Scenario {
         Ok(())
     }
 }
+
+/// The demo view, as JSON: an invented club's field on a December evening, the
+/// Pleiades in an 80/600 refractor with a mirror diagonal and a 25 mm 52° eyepiece.
+pub const DEMO_SCENARIO_JSON: &str = r#"{
+  "version": 1,
+  "site": { "name": "Hollow Meadow field (demo)", "lat_deg": 47.05, "lon_deg": 8.3, "elev_m": 560,
+            "tz": "Europe/Zurich", "event_start": "19:00", "event_end": "23:00" },
+  "time_utc": "2026-12-12T20:00:00Z",
+  "train": { "name": "80/600 refractor",
+             "instrument": { "kind": "telescope", "design": { "type": "refractor" }, "aperture_mm": 80, "focal_length_mm": 600 },
+             "accessories": [ { "kind": "star_diagonal", "prism": "mirror90" },
+                              { "kind": "eyepiece", "focal_length_mm": 25, "apparent_field_deg": 52 } ],
+             "mount": { "kind": "alt_az" } },
+  "target": "M45",
+  "view": { "north_up": false, "night": false, "labels": true, "sky_mag_arcsec2": 20.5 }
+}"#;
+
+/// The demo scenario (a constant the tests prove valid).
+pub fn demo_scenario() -> Scenario {
+    #[allow(clippy::expect_used)]
+    Scenario::from_json(DEMO_SCENARIO_JSON).expect("the built-in demo scenario is valid (tested)")
+}
+
+/// Scenarios whose pixels must be identical natively and in wasm (see src/bin/render_demo.rs
+/// and tests/browser/same-bytes.test.mjs): the demo, a night-mode camera view, Jupiter, the Moon.
+pub fn comparison_scenarios() -> Vec<(&'static str, String)> {
+    let demo = DEMO_SCENARIO_JSON.to_string();
+    let night = demo.replace("\"night\": false", "\"night\": true").replace("\"M45\"", "\"M42\"");
+    let jupiter = demo.replace("\"M45\"", "\"Jupiter\"").replace("\"focal_length_mm\": 25", "\"focal_length_mm\": 6");
+    let moon = demo.replace("\"M45\"", "\"Moon\"").replace("2026-12-12T20:00:00Z", "2026-12-17T17:30:00Z");
+    let chart = demo.replace("\"north_up\": false", "\"north_up\": true").replace("\"M45\"", "\"NGC 7000\"");
+    vec![("demo", demo), ("night_m42", night), ("jupiter", jupiter), ("moon", moon), ("chart_ngc7000", chart)]
+}
+
+/// FNV-1a 64-bit hash (Fowler–Noll–Vo), for comparing pixel buffers across builds.
+pub fn fnv1a64(bytes: &[u8]) -> u64 {
+    let mut h: u64 = 0xcbf2_9ce4_8422_2325;
+    for &b in bytes {
+        h ^= b as u64;
+        h = h.wrapping_mul(0x0000_0100_0000_01b3);
+    }
+    h
+}

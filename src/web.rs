@@ -93,3 +93,56 @@ impl Default for Engine {
         Engine::new()
     }
 }
+
+/// The benchmark workloads (src/bench.rs) run in wasm, timed with performance.now().
+#[wasm_bindgen]
+pub struct Bench {
+    files: Vec<(String, Vec<u8>)>,
+}
+
+#[wasm_bindgen]
+impl Bench {
+    #[wasm_bindgen(constructor)]
+    pub fn new() -> Bench {
+        Bench { files: Vec::new() }
+    }
+
+    pub fn add(&mut self, name: &str, bytes: &[u8]) {
+        self.files.push((name.to_string(), bytes.to_vec()));
+    }
+
+    pub fn run(&self, quick: bool) -> Result<JsValue, JsValue> {
+        let perf = js_sys::Reflect::get(&js_sys::global(), &JsValue::from_str("performance"))?;
+        let now_fn: js_sys::Function = js_sys::Reflect::get(&perf, &JsValue::from_str("now"))?.dyn_into()?;
+        let mut now = || now_fn.call0(&perf).ok().and_then(|v| v.as_f64()).unwrap_or(0.0) * 1e6;
+        let refs: Vec<(&str, &[u8])> = self.files.iter().map(|(n, b)| (n.as_str(), b.as_slice())).collect();
+        to_js(&crate::bench::run_all(&refs, quick, &mut now))
+    }
+}
+
+impl Default for Bench {
+    fn default() -> Self {
+        Bench::new()
+    }
+}
+
+/// The comparison scenarios (names and JSON) whose pixels must match the native build.
+#[wasm_bindgen(js_name = comparisonScenarios)]
+pub fn comparison_scenarios() -> Result<JsValue, JsValue> {
+    to_js(&crate::scenario::comparison_scenarios())
+}
+
+/// FNV-1a 64 hash of the engine's last frame, as 16 hex digits.
+#[wasm_bindgen(js_name = frameHash)]
+pub fn frame_hash(engine: &Engine) -> String {
+    format!("{:016x}", crate::scenario::fnv1a64(engine.core.pixels()))
+}
+
+#[wasm_bindgen]
+impl Engine {
+    /// Sets a scenario from JSON text (as the comparison and bench harnesses hold them).
+    #[wasm_bindgen(js_name = setScenarioJson)]
+    pub fn set_scenario_json(&mut self, json: &str) -> Result<JsValue, JsValue> {
+        to_js(&self.core.set_scenario_json(json).map_err(err)?)
+    }
+}

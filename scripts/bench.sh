@@ -1,0 +1,14 @@
+#!/usr/bin/env bash
+# Benchmarks: the same workloads (src/bench.rs) native and in wasm, built by the same
+# compiler, in one run; prints medians and the ratios the targets are set on.
+# Usage: scripts/bench.sh [--quick]
+set -euo pipefail
+cd "$(dirname "$0")/.."
+. .tools/wasm.env
+QUICK="${1:-}"
+echo "[bench] native build with the wasm build's compiler ($WASM_RUSTC)"
+CARGO_TARGET_DIR="$WASM_TARGET_DIR-native" RUSTC="$WASM_RUSTC" RUSTC_BOOTSTRAP=$WASM_BOOTSTRAP \
+  "$WASM_CARGO" build --quiet --release --bin bench
+native_json=$("$WASM_TARGET_DIR-native/release/bench" $QUICK catalog)
+wasm_json=$(node scripts/bench-wasm.mjs $QUICK)
+node scripts/bench-report.mjs "$native_json" "$wasm_json"
