@@ -33,7 +33,7 @@ wasm: setup-wasm data
 ## Catalog data files the page fetches (built files are committed under catalog/; copied, not committed, into www/catalog/).
 data:
 	@mkdir -p www/catalog
-	for f in catalog/*.nfs catalog/*.nfd catalog/*.bin catalog/*.tsv; do [ -e "$$f" ] && cp -u "$$f" www/catalog/; done; true
+	for f in catalog/*.nfs catalog/*.nfd catalog/*.bin catalog/*.tsv; do [ -e "$$f" ] && cp "$$f" www/catalog/; done; true
 
 native-test:
 	@echo "[test] cargo test (native)"

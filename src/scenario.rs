@@ -202,18 +202,19 @@ pub fn parse_civil(field: &'static str, text: &str) -> Result<CivilTime, Scenari
 
 impl Scenario {
     /// Reads a scenario from JSON text, refusing newer formats with a clear message.
+    /// (One parse path, serde_json from text, keeps the wasm small.)
     pub fn from_json(text: &str) -> Result<Scenario, ScenarioError> {
-        let v: serde_json::Value = serde_json::from_str(text).map_err(|e| ScenarioError::Json(e.to_string()))?;
-        Scenario::from_value(v)
-    }
-
-    pub fn from_value(v: serde_json::Value) -> Result<Scenario, ScenarioError> {
-        if let Some(found) = v.get("version").and_then(|x| x.as_u64()) {
+        #[derive(Deserialize)]
+        struct VersionOnly {
+            version: Option<serde_json::Number>,
+        }
+        let v: VersionOnly = serde_json::from_str(text).map_err(|e| ScenarioError::Json(e.to_string()))?;
+        if let Some(found) = v.version.as_ref().and_then(|n| n.as_u64()) {
             if found > SCENARIO_VERSION as u64 {
                 return Err(ScenarioError::FutureVersion { found: found.min(u32::MAX as u64) as u32, supported: SCENARIO_VERSION });
             }
         }
-        let s: Scenario = serde_json::from_value(v).map_err(|e| ScenarioError::Json(e.to_string()))?;
+        let s: Scenario = serde_json::from_str(text).map_err(|e| ScenarioError::Json(e.to_string()))?;
         s.validate()?;
         Ok(s)
     }

@@ -25,9 +25,13 @@ fn to_js<T: Serialize>(v: &T) -> Result<JsValue, JsValue> {
     v.serialize(&serde_wasm_bindgen::Serializer::json_compatible()).map_err(err)
 }
 
+/// JS object → JSON text → Scenario: the same serde_json parse path as a share link.
+fn json_text(v: &JsValue) -> Result<String, JsValue> {
+    js_sys::JSON::stringify(v)?.as_string().ok_or_else(|| err("the view description could not be read: it is not a plain object"))
+}
+
 fn scenario_from(v: JsValue) -> Result<Scenario, JsValue> {
-    let json: serde_json::Value = serde_wasm_bindgen::from_value(v).map_err(|e| err(format!("the view description could not be read: {e}")))?;
-    Scenario::from_value(json).map_err(err)
+    Scenario::from_json(&json_text(&v)?).map_err(err)
 }
 
 #[wasm_bindgen]
