@@ -80,6 +80,15 @@ impl Engine {
         to_js(&self.core.resolve(query).map_err(err)?)
     }
 
+    /// Plans the night: takes {scenario, start_utc?, end_utc?, utc_offset_min?, horizon?, sky?, clouded?}
+    /// or a bare scenario (then: four hours from its time).
+    #[wasm_bindgen(js_name = planNight)]
+    pub fn plan_night(&self, request: JsValue) -> Result<JsValue, JsValue> {
+        let text = json_text(&request)?;
+        let req = crate::engine::night::PlanRequest::from_json(&text).map_err(err)?;
+        to_js(&self.core.plan_night(&req).map_err(err)?)
+    }
+
     #[wasm_bindgen(js_name = encodeLink)]
     pub fn encode_link(&self, scenario: JsValue) -> Result<String, JsValue> {
         let s = scenario_from(scenario)?;

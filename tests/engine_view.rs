@@ -92,3 +92,33 @@ fn jupiter_is_in_its_own_scene() {
     // Jupiter and four moons.
     assert_eq!(c.scene.bodies.iter().filter(|b| b.look == nightfield::scene::BodyLook::Satellite).count(), 4);
 }
+
+#[test]
+fn night_plan_for_the_demo_kit() {
+    use nightfield::engine::night::PlanRequest;
+    let e = engine();
+    let s = scenario("M45", REFRACTOR_DIAGONAL, "2026-12-12T18:00:00Z");
+    let req = PlanRequest::from_json(&serde_json::json!({
+        "scenario": s, "start_utc": "2026-12-12T18:00:00Z", "end_utc": "2026-12-12T22:00:00Z", "utc_offset_min": 60
+    }).to_string()).unwrap();
+    let plan = e.plan_night(&req).unwrap();
+    let v = serde_json::to_value(&plan).unwrap();
+    let targets = v["targets"].as_array().map(|a| a.len()).unwrap_or(0);
+    assert!(targets > 50, "candidates planned: {targets}");
+    // A bare scenario is accepted too (four hours from its time).
+    let bare = PlanRequest::from_json(&serde_json::to_string(&s).unwrap()).unwrap();
+    assert!(e.plan_night(&bare).is_ok());
+    // A window that ends before it starts is refused in words.
+    let bad = PlanRequest::from_json(&serde_json::json!({"scenario": s, "start_utc": "2026-12-12T22:00:00Z", "end_utc": "2026-12-12T18:00:00Z"}).to_string()).unwrap();
+    assert!(e.plan_night(&bad).unwrap_err().to_string().contains("end after it starts"));
+}
+
+#[test]
+fn demo_and_comparison_scenarios_are_valid() {
+    let mut e = engine();
+    let f = e.set_scenario(nightfield::scenario::demo_scenario()).unwrap();
+    assert!(f.target_name.starts_with("M 45"), "{}", f.target_name);
+    for (name, json) in nightfield::scenario::comparison_scenarios() {
+        e.set_scenario_json(&json).unwrap_or_else(|err| panic!("{name}: {err}"));
+    }
+}

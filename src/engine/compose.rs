@@ -234,7 +234,9 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         mount: Default::default(),
     });
     let sky_mu = s.view.sky_mag_arcsec2;
-    let cond = Conditions::default();
+    // The naked-eye star limit under this sky (Crumey 2014, field factor 2 for a
+    // casual observer) sets how deep the eyepiece reaches.
+    let cond = Conditions { naked_eye_limit_mag: crate::plan::visibility::naked_eye_limit_mag(sky_mu, 2.0), ..Conditions::default() };
     let optics = figures_for(&train, &cond).map_err(|e| EngineError::Optics(e.to_string()))?;
 
     let horizontal = to_horizontal(aim.apparent, &site, &t);

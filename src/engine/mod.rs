@@ -7,6 +7,7 @@
 
 pub mod compose;
 pub mod figures;
+pub mod night;
 
 use crate::render::{self, Frame, Label, ViewParams};
 use crate::scenario::{Scenario, ScenarioError};
@@ -214,6 +215,11 @@ impl Engine {
     /// Resolves a target name ("M42", "Vega", "Jupiter") to what it is and where.
     pub fn resolve(&self, query: &str) -> Result<figures::Resolved, EngineError> {
         figures::resolve(&self.cats, self.eph.as_ref(), self.scenario.as_ref(), query)
+    }
+
+    /// Plans the night for the request's kit, site and window (see `night`).
+    pub fn plan_night(&self, req: &night::PlanRequest) -> Result<crate::plan::Plan, EngineError> {
+        night::plan(req, &self.cats, self.eph.as_ref())
     }
 
     /// A share link fragment for a scenario (compact, versioned, checksummed).

@@ -1,0 +1,149 @@
+//! The night plan for a scenario's kit and site: builds the planner's input from the
+//! loaded catalogs (OpenNGC), the ephemeris (Sun, Moon, planets, Jupiter's moons) and the
+//! stations' optical trains, then runs `plan::plan_night`.
+
+use super::compose::{instant_of, site_of};
+use super::EngineError;
+use crate::plan::input::{AzSector, HorizonMask, PlanInput};
+use crate::plan::sky_brightness::SkyBrightness;
+use crate::plan::{plan_night, wire, Plan};
+use crate::scenario::{parse_civil, Scenario, StationSpec};
+use crate::sky::catalog::Catalogs;
+use crate::solar::ephemeris::Ephemeris;
+use serde::{Deserialize, Serialize};
+
+/// What the page asks for: the scenario (site, stations) and the event's window.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct PlanRequest {
+    pub scenario: Scenario,
+    /// Event start and end, UTC ("YYYY-MM-DDTHH:MM[:SS]Z"). Default: from the
+    /// scenario's time for four hours.
+    #[serde(default)]
+    pub start_utc: Option<String>,
+    #[serde(default)]
+    pub end_utc: Option<String>,
+    /// The site's UTC offset during the event, minutes (the page gets it from Intl).
+    #[serde(default)]
+    pub utc_offset_min: i32,
+    #[serde(default)]
+    pub horizon: HorizonMask,
+    /// Sky brightness; default: the scenario's view sky brightness.
+    #[serde(default)]
+    pub sky: Option<SkyBrightness>,
+    /// Azimuth sectors that have clouded over (a quick re-plan leaves them out).
+    #[serde(default)]
+    pub clouded: Vec<AzSector>,
+    /// Deep-sky candidates: Messier objects plus NGC/IC objects brighter than this V.
+    #[serde(default = "default_dso_vmag")]
+    pub dso_vmag_limit: f64,
+}
+
+impl PlanRequest {
+    /// From JSON text: a request object, or a bare scenario (then the window is four
+    /// hours from the scenario's time).
+    pub fn from_json(text: &str) -> Result<PlanRequest, EngineError> {
+        #[derive(Deserialize)]
+        struct Probe {
+            scenario: Option<serde::de::IgnoredAny>,
+        }
+        let probe: Probe = serde_json::from_str(text).map_err(|e| EngineError::Plan(format!("the plan request could not be read: {e}")))?;
+        if probe.scenario.is_some() {
+            let req: PlanRequest = serde_json::from_str(text).map_err(|e| EngineError::Plan(format!("the plan request could not be read: {e}")))?;
+            Ok(req)
+        } else {
+            let scenario = Scenario::from_json(text).map_err(EngineError::Scenario)?;
+            Ok(PlanRequest {
+                scenario,
+                start_utc: None,
+                end_utc: None,
+                utc_offset_min: 0,
+                horizon: HorizonMask::default(),
+                sky: None,
+                clouded: vec![],
+                dso_vmag_limit: default_dso_vmag(),
+            })
+        }
+    }
+}
+
+fn default_dso_vmag() -> f64 {
+    8.0
+}
+
+fn utc_jd(field: &'static str, text: &str) -> Result<f64, EngineError> {
+    let c = parse_civil(field, text).map_err(EngineError::Scenario)?;
+    let t = crate::time::Instant::from_civil(c.year, c.month, c.day, c.hour, c.minute, c.second, 0).map_err(|e| EngineError::Time(e.to_string()))?;
+    Ok(t.utc_jd)
+}
+
+/// Plans the night (see module doc).
+pub fn plan(req: &PlanRequest, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result<Plan, EngineError> {
+    let s = &req.scenario;
+    s.validate().map_err(EngineError::Scenario)?;
+    let eph = eph.ok_or(EngineError::NotLoaded { what: "the Sun, Moon and planet positions (ephemeris.bin)" })?;
+    let site = site_of(s)?;
+    let t0 = instant_of(s)?;
+    let start = match &req.start_utc {
+        Some(x) => utc_jd("event start", x)?,
+        None => t0.utc_jd,
+    };
+    let end = match &req.end_utc {
+        Some(x) => utc_jd("event end", x)?,
+        None => start + 4.0 / 24.0,
+    };
+    if !(end > start && end - start <= 1.0) {
+        return Err(EngineError::Plan("the event must end after it starts and last at most 24 hours".into()));
+    }
+    // Stations: the scenario's, else the chosen train as one station.
+    let mut specs: Vec<StationSpec> = s.stations.clone();
+    if specs.is_empty() {
+        if let Some(t) = &s.train {
+            specs.push(StationSpec { name: if t.name.is_empty() { "Station 1".into() } else { t.name.clone() }, trains: vec![t.clone()] });
+        }
+    }
+    if specs.is_empty() {
+        return Err(EngineError::Plan("the kit has no station with a telescope or binoculars yet".into()));
+    }
+    let mut stations = Vec::new();
+    for sp in &specs {
+        stations.push(wire::station_from_trains(&sp.name, &sp.trains, &[]).map_err(|e| EngineError::Optics(format!("station {}: {e}", sp.name)))?);
+    }
+    // Candidates: Sun, Moon, planets; Messier and bright NGC/IC objects.
+    let mut targets = wire::body_candidates(eph, &site, start, end, 0.5).map_err(|e| EngineError::Plan(e.to_string()))?;
+    let mid = crate::time::Instant::from_utc_jd((start + end) / 2.0).map_err(|e| EngineError::Time(e.to_string()))?;
+    let npb = crate::sky::frames::npb_matrix(mid.tt_jd);
+    for id in 0..cats.dso_count() as u32 {
+        if let Some(d) = cats.dso(id) {
+            let bright = d.vmag.or(d.bmag).map(|m| (m as f64) <= req.dso_vmag_limit).unwrap_or(false);
+            if d.messier > 0 || bright {
+                if let Some(c) = wire::candidate_from_dso_with(d, &npb) {
+                    targets.push(c);
+                }
+            }
+        }
+    }
+    let events = wire::jupiter_timed_events(eph, start, end).unwrap_or_default();
+    let input = PlanInput {
+        site,
+        utc_offset_minutes: req.utc_offset_min,
+        start_utc_jd: start,
+        end_utc_jd: end,
+        step_minutes: 5.0,
+        horizon: req.horizon.clone(),
+        sky: req.sky.clone().unwrap_or(SkyBrightness::Measured { zenith_mu: s.view.sky_mag_arcsec2 }),
+        extinction_k_mag: 0.2,
+        seeing_arcsec: 2.0,
+        sun_caution_deg: 20.0,
+        slot_minutes: 30.0,
+        eye_pupil_mm: 6.0,
+        stations,
+        targets,
+        events,
+    };
+    if req.clouded.is_empty() {
+        plan_night(&input).map_err(|e| EngineError::Plan(e.to_string()))
+    } else {
+        let prepared = crate::plan::schedule::prepare(&input).map_err(|e| EngineError::Plan(e.to_string()))?;
+        Ok(prepared.plan(&req.clouded, None))
+    }
+}
