@@ -89,6 +89,20 @@ impl Engine {
         to_js(&self.core.plan_night(&req).map_err(err)?)
     }
 
+    /// How to find the current target with a finder ({kind, aperture_mm, magnification,
+    /// true_field_deg}; omitted: an 8×50 straight-through): pointing words, finder view,
+    /// star-hop route, dial readings.
+    #[wasm_bindgen(js_name = findCard)]
+    pub fn find_card(&mut self, finder: JsValue) -> Result<JsValue, JsValue> {
+        let spec = if finder.is_undefined() || finder.is_null() {
+            None
+        } else {
+            let text = json_text(&finder)?;
+            Some(serde_json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
+        };
+        to_js(&self.core.find_card(spec).map_err(err)?)
+    }
+
     #[wasm_bindgen(js_name = encodeLink)]
     pub fn encode_link(&self, scenario: JsValue) -> Result<String, JsValue> {
         let s = scenario_from(scenario)?;

@@ -122,3 +122,19 @@ fn demo_and_comparison_scenarios_are_valid() {
         e.set_scenario_json(&json).unwrap_or_else(|err| panic!("{name}: {err}"));
     }
 }
+
+#[test]
+fn find_card_for_m13_from_the_demo_site() {
+    let mut e = engine();
+    e.set_scenario(scenario("M13", REFRACTOR_DIAGONAL, "2026-06-20T21:30:00Z")).unwrap();
+    let card = e.find_card(None).unwrap();
+    let v = serde_json::to_value(&card).unwrap();
+    // A June night at 47° N: M13 is high; the words must name a direction.
+    let words = v["pointing"].to_string().to_lowercase();
+    assert!(["north", "south", "east", "west", "overhead"].iter().any(|w| words.contains(w)), "{words}");
+    if let Some(route) = card.route.as_ref() {
+        assert!(route.hop_count >= 1);
+    } else {
+        assert!(card.route_error.is_some());
+    }
+}

@@ -7,6 +7,7 @@
 
 pub mod compose;
 pub mod figures;
+pub mod finding;
 pub mod night;
 
 use crate::render::{self, Frame, Label, ViewParams};
@@ -84,6 +85,7 @@ pub struct Engine {
     pan_px: (f32, f32),
     zoom: f32,
     last_view: ViewParams,
+    route_stars: Option<Vec<crate::find::hop::HopStar>>,
 }
 
 impl Default for Engine {
@@ -103,6 +105,7 @@ impl Engine {
             pan_px: (0.0, 0.0),
             zoom: 1.0,
             last_view: ViewParams::default(),
+            route_stars: None,
         }
     }
 
@@ -115,6 +118,7 @@ impl Engine {
             self.eph = Some(e);
         } else {
             self.cats.load(file, bytes).map_err(|e| EngineError::Catalog { file: file.into(), why: e.to_string() })?;
+            self.route_stars = None;
         }
         // A tier that arrives later deepens the current view.
         if let Some(s) = self.scenario.clone() {
@@ -220,6 +224,23 @@ impl Engine {
     /// Plans the night for the request's kit, site and window (see `night`).
     pub fn plan_night(&self, req: &night::PlanRequest) -> Result<crate::plan::Plan, EngineError> {
         night::plan(req, &self.cats, self.eph.as_ref())
+    }
+
+    /// How to find the current target: pointing in words, the finder's view, a star-hop
+    /// route and dial readings (default finder: an 8×50 straight-through, 6° field).
+    pub fn find_card(&mut self, finder: Option<crate::find::finder::FinderSpec>) -> Result<crate::find::card::FindCard, EngineError> {
+        let spec = finder.unwrap_or(crate::find::finder::FinderSpec {
+            kind: crate::find::finder::FinderKind::StraightThrough,
+            aperture_mm: 50.0,
+            magnification: 8.0,
+            true_field_deg: 6.0,
+        });
+        if self.route_stars.is_none() {
+            self.route_stars = Some(finding::route_stars(&self.cats));
+        }
+        let c = self.composed.as_ref().ok_or(EngineError::NoScenario)?;
+        let stars = self.route_stars.as_deref().unwrap_or(&[]);
+        finding::card(c, &self.cats, self.eph.as_ref(), stars, spec)
     }
 
     /// A share link fragment for a scenario (compact, versioned, checksummed).
