@@ -1,15 +1,15 @@
 //! Sky background and surface brightness → display light.
 //!
 //! Display mapping (ours, stated): a surface brightness S (V mag/arcsec², as
-//! seen in the instrument) is shown with linear light 10^(−0.4 (S − 17)),
-//! so 17 mag/arcsec² is white, a dark country sky (21.5) a faint glow, a
-//! city sky (18.5) mid-grey. Deep-sky objects use the same scale, so their
+//! seen in the instrument) is shown with linear light 10^(−0.4 (S − 16)),
+//! so 16 mag/arcsec² is white, a dark country sky (21.5) a faint glow, a
+//! city sky (18.5) dark grey. Deep-sky objects use the same scale, so their
 //! contrast against the sky is the true ratio of surface brightnesses.
 
 use crate::scene::SkyLight;
 
 /// Surface brightness shown as full white, mag/arcsec².
-pub const WHITE_MAG_ARCSEC2: f64 = 17.0;
+pub const WHITE_MAG_ARCSEC2: f64 = 16.0;
 
 /// Linear display light of a surface brightness.
 pub fn surface_light(mag_arcsec2: f64) -> f32 {
@@ -33,4 +33,4 @@ pub fn sky_colour(sky: &SkyLight) -> [f32; 3] {
 }
 
 /// Colour of everything outside the field stop (the dark of the eyepiece).
-pub const OUTSIDE: [f32; 3] = [0.004, 0.004, 0.005];
+pub const OUTSIDE: [f32; 3] = [0.0008, 0.0008, 0.001];

@@ -92,7 +92,14 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
         let r_px = (b.radius_rad * t.px_per_rad) as f32;
         if r_px < 1.0 * dpr || b.look == BodyLook::Satellite && r_px < 2.0 * dpr {
             let (x, y) = t.to_px(b.offset);
-            let look = stars::star_look(b.vmag.max(scene.mag_limit - 12.0), scene.mag_limit, dpr);
+            let mut look = stars::star_look(b.vmag.max(scene.mag_limit - 12.0), scene.mag_limit, dpr);
+            if b.look == BodyLook::Satellite {
+                // A moon beside its planet is a point, much smaller than the disc:
+                // keep it near the base star width (bright, not bloated).
+                let s = look.sigma_px.min(stars::SIGMA0_PX * dpr * 1.4);
+                let peak = (look.flux / (core::f32::consts::TAU * look.sigma_px * look.sigma_px)).min(stars::PEAK_MAX);
+                look = stars::StarLook { flux: peak * core::f32::consts::TAU * s * s, sigma_px: s };
+            }
             stars::stamp(cv, x, y, look, pal.map(lit_colour(b.look)), rows, &mut wx);
             continue;
         }

@@ -6,7 +6,7 @@
 //! Magnitude → look (our display mapping, stated): relative flux
 //! f = 10^(−0.4 (m − m_lim)); the PSF peak is 0.16 f (linear light) at width
 //! σ₀ = 0.55 px × dpr until it reaches 1.5; beyond that the peak stays and σ
-//! grows as (peak / 1.5)^(1/5), so displayed flux grows as f^0.4 (bright stars
+//! grows as (peak / 1.5)^0.3, so displayed flux grows as f^0.6 (bright stars
 //! look bigger, not just clipped), capped at σ = 7 px × dpr (and 36 px).
 
 use super::raster::Canvas;
@@ -58,7 +58,7 @@ pub fn star_look(vmag: f32, mag_limit: f32, dpr: f32) -> StarLook {
     let (peak, sigma) = if peak <= PEAK_MAX {
         (peak, s0)
     } else {
-        (PEAK_MAX, (s0 * libm::expf(0.2 * libm::logf(peak / PEAK_MAX))).min((7.0 * dpr).min(36.0)))
+        (PEAK_MAX, (s0 * libm::expf(0.3 * libm::logf(peak / PEAK_MAX))).min((7.0 * dpr).min(36.0)))
     };
     StarLook { flux: peak * core::f32::consts::TAU * sigma * sigma, sigma_px: sigma }
 }
