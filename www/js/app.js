@@ -202,8 +202,13 @@ const app = {
   tonightRows() {
     const eng = this.host.engine;
     if (typeof eng.planNight === 'function') {
+      // The night plan from this time for four hours: targets above 10° now, with their best time.
       const plan = this.host.call((e) => e.planNight(toScenario(this.state)));
-      return Array.isArray(plan) ? plan : plan?.up_tonight || plan?.targets || [];
+      const rows = (plan?.targets || [])
+        .filter((t) => t.candidate && Array.isArray(t.alt_deg) && t.alt_deg[0] > 10)
+        .map((t) => ({ name: t.name, query: t.id, alt_deg: t.alt_deg[0], kind: String(t.kind).replace(/-/g, ' '),
+          best: t.best_local }));
+      return rows.sort((a, b) => b.alt_deg - a.alt_deg);
     }
     const spare = this.host.secondary('tonight');
     const rows = [];
@@ -234,6 +239,7 @@ const app = {
       const bits = [];
       if (typeof r.alt_deg === 'number') bits.push(`altitude ${r.alt_deg.toFixed(0)}°`);
       if (r.kind) bits.push(r.kind);
+      if (r.best) bits.push(`best at ${r.best}`);
       sub.textContent = bits.join(' · ');
       b.append(sub);
       b.addEventListener('click', () => this.setTarget(r.query || r.name || r.id));
