@@ -218,11 +218,16 @@ const fn crc_table() -> [u32; 256] {
 
 /// CRC-32 with the IEEE 802.3 polynomial (reflected 0xEDB88320), as in RFC 1952 and PNG.
 pub fn crc32(bytes: &[u8]) -> u32 {
-    let mut c = 0xFFFF_FFFFu32;
+    crc32_update(0xFFFF_FFFF, bytes) ^ 0xFFFF_FFFF
+}
+
+/// One step of CRC-32 over `bytes` from the running (pre-inverted) value `c`
+/// (the catalog decoders feed several slices through it).
+pub fn crc32_update(mut c: u32, bytes: &[u8]) -> u32 {
     for &b in bytes {
         c = CRC_TABLE[((c ^ u32::from(b)) & 0xFF) as usize] ^ (c >> 8);
     }
-    c ^ 0xFFFF_FFFF
+    c
 }
 
 #[cfg(test)]

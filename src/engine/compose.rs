@@ -196,28 +196,11 @@ pub fn dso_title(d: &crate::sky::dso::Dso) -> String {
 }
 
 pub fn body_title(b: BodyId) -> &'static str {
-    match b {
-        BodyId::Sun => "Sun",
-        BodyId::Moon => "Moon",
-        BodyId::Mercury => "Mercury",
-        BodyId::Venus => "Venus",
-        BodyId::Mars => "Mars",
-        BodyId::Jupiter => "Jupiter",
-        BodyId::Saturn => "Saturn",
-        BodyId::Uranus => "Uranus",
-        BodyId::Neptune => "Neptune",
-    }
+    b.title()
 }
 
 fn place_of(star: &crate::sky::catalog::Star) -> CatalogPlace {
-    CatalogPlace {
-        ra_rad: star.ra_rad,
-        dec_rad: star.dec_rad,
-        pm_ra_cosdec_mas_yr: star.pm_ra_cosdec_mas_yr as f64,
-        pm_dec_mas_yr: star.pm_dec_mas_yr as f64,
-        parallax_mas: star.parallax_mas as f64,
-        rv_km_s: 0.0,
-    }
+    CatalogPlace::from(star)
 }
 
 /// Builds the scene and the numbers beside it for a validated scenario.

@@ -18,14 +18,7 @@ use crate::time::{local_sidereal_rad, Instant};
 
 /// A catalog star's place and motion as the sky core wants it.
 pub fn catalog_place(s: &Star) -> CatalogPlace {
-    CatalogPlace {
-        ra_rad: s.ra_rad,
-        dec_rad: s.dec_rad,
-        pm_ra_cosdec_mas_yr: s.pm_ra_cosdec_mas_yr as f64,
-        pm_dec_mas_yr: s.pm_dec_mas_yr as f64,
-        parallax_mas: s.parallax_mas as f64,
-        rv_km_s: 0.0,
-    }
+    CatalogPlace::from(s)
 }
 
 /// Geometric alt/az of a catalog star (apparent place, IAU 2006/2000B, via `sky`).

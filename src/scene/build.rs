@@ -238,15 +238,5 @@ fn body_look(b: BodyId) -> BodyLook {
 }
 
 fn title(b: BodyId) -> &'static str {
-    match b {
-        BodyId::Sun => "Sun",
-        BodyId::Moon => "Moon",
-        BodyId::Mercury => "Mercury",
-        BodyId::Venus => "Venus",
-        BodyId::Mars => "Mars",
-        BodyId::Jupiter => "Jupiter",
-        BodyId::Saturn => "Saturn",
-        BodyId::Uranus => "Uranus",
-        BodyId::Neptune => "Neptune",
-    }
+    b.title()
 }

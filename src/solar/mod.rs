@@ -72,6 +72,21 @@ impl BodyId {
         }
     }
 
+    /// The name as a heading ("Sun", "Moon", "Jupiter").
+    pub fn title(self) -> &'static str {
+        match self {
+            BodyId::Sun => "Sun",
+            BodyId::Moon => "Moon",
+            BodyId::Mercury => "Mercury",
+            BodyId::Venus => "Venus",
+            BodyId::Mars => "Mars",
+            BodyId::Jupiter => "Jupiter",
+            BodyId::Saturn => "Saturn",
+            BodyId::Uranus => "Uranus",
+            BodyId::Neptune => "Neptune",
+        }
+    }
+
     /// Parse a name, case-insensitive ("Moon", "jupiter").
     pub fn from_name(s: &str) -> Option<BodyId> {
         let s = s.trim();

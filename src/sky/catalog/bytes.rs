@@ -2,30 +2,10 @@
 
 use super::CatalogError;
 
-/// CRC-32 (IEEE 802.3, reflected, polynomial 0xEDB88320) over several slices, as zlib.crc32.
+/// CRC-32 (IEEE 802.3, reflected, polynomial 0xEDB88320) over several slices, as zlib.crc32
+/// (the same table as the share links: `share::crc32_update`).
 pub fn crc32(parts: &[&[u8]]) -> u32 {
-    const TABLE: [u32; 256] = {
-        let mut t = [0u32; 256];
-        let mut i = 0;
-        while i < 256 {
-            let mut c = i as u32;
-            let mut k = 0;
-            while k < 8 {
-                c = if c & 1 != 0 { 0xEDB8_8320 ^ (c >> 1) } else { c >> 1 };
-                k += 1;
-            }
-            t[i] = c;
-            i += 1;
-        }
-        t
-    };
-    let mut crc = 0xFFFF_FFFFu32;
-    for p in parts {
-        for &b in p.iter() {
-            crc = TABLE[((crc ^ b as u32) & 0xFF) as usize] ^ (crc >> 8);
-        }
-    }
-    !crc
+    !parts.iter().fold(0xFFFF_FFFFu32, |c, p| crate::share::crc32_update(c, p))
 }
 
 /// A bounds-checked cursor: every read past the end is `CatalogError::Truncated`.
