@@ -9,6 +9,7 @@ import { paint, attachGestures } from './view.js';
 import { encodeQr, drawQr } from './qr.js';
 import { loadTiers, showTiers, registerWorker, askPersist } from './offline.js';
 import { zonedToUtcMs, utcToZoned, isValidZone, siteLabel } from './time.js';
+import { initPlanUi } from './plan-ui.js';
 
 const $ = (id) => document.getElementById(id);
 const SESSION_KEY = 'nightfield.session';
@@ -413,7 +414,7 @@ async function main() {
   app.savedKit = kit;
   app.state = restoreSession(defaultState(kit));
   if (problem) app.showError(problem);
-  initNight(); initTabs(); initKitUi(app); initSiteUi(app); initView(); initLinkBanner();
+  initNight(); initTabs(); initKitUi(app); initSiteUi(app); initPlanUi(app); initView(); initLinkBanner();
   renderKit(app);
   renderSite(app);
   app.host = new EngineHost({

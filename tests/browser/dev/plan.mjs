@@ -1,0 +1,22 @@
+// Dev helper: the Plan tab (station cards) and the find card, screenshots into /tmp.
+import { chromium } from 'playwright-core';
+import { startServer } from '../server.mjs';
+const s = await startServer();
+const b = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu'] });
+const errors = [];
+const ctx = await b.newContext({ viewport: { width: 390, height: 844 } });
+const p = await ctx.newPage();
+p.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+p.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
+await p.goto(s.url);
+await p.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 }).catch(() => {});
+await p.click('#find-go'); await p.waitForTimeout(500);
+await p.locator('#find-out').scrollIntoViewIfNeeded();
+await p.screenshot({ path: '/tmp/shot-find.png' });
+await p.click('#tab-plan'); await p.click('#plan-go'); await p.waitForTimeout(1500);
+await p.screenshot({ path: '/tmp/shot-plan.png', fullPage: false });
+await p.emulateMedia({ media: 'print' });
+await p.evaluate(() => document.body.classList.add('print-cards'));
+await p.screenshot({ path: '/tmp/shot-plan-print.png', fullPage: true });
+console.log(errors.join('\n'));
+await b.close(); await s.close();

@@ -1,0 +1,39 @@
+// The Plan tab (station cards, the safety card, print view) and the find card, in the page.
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { openBrowser, gotoReady, screenshot, PHONE } from './harness.mjs';
+
+test('the event plan gives a card per station and the safety card; print view shows only the cards', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 });
+  await page.click('#tab-plan');
+  await page.click('#plan-go');
+  await page.waitForSelector('#plan-out .card');
+  const titles = await page.$$eval('#plan-out .card h3', (hs) => hs.map((h) => h.textContent));
+  // The demo kit has two stations: two station cards and the safety card.
+  assert.equal(titles.length, 3, `cards: ${titles.join(' | ')}`);
+  assert.ok(titles.includes('Safety on the field'));
+  // Every scheduled showing names a time window inside the event hours (19:00–23:00 in the demo).
+  const times = await page.$$eval('#plan-out .entry h4', (hs) => hs.map((h) => h.textContent.slice(0, 11)));
+  assert.ok(times.length > 0);
+  for (const w of times) assert.match(w, /^(19|2[0-3]):[0-5]\d–(19|2[0-3]):[0-5]\d$/, w);
+  await page.emulateMedia({ media: 'print' });
+  await page.evaluate(() => document.body.classList.add('print-cards'));
+  assert.equal(await page.isVisible('#view'), false, 'print view hides the eyepiece view');
+  assert.equal(await page.isVisible('#plan-out'), true);
+  await screenshot(page, 'plan-print.png');
+  assert.deepEqual(errors, []);
+});
+
+test('the find card says where to look and how to hop there', async (t) => {
+  const { page, server, errors } = await openBrowser(t, PHONE);
+  await gotoReady(page, server.url);
+  await page.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 });
+  await page.click('#find-go');
+  await page.waitForSelector('#find-out p');
+  const text = await page.textContent('#find-out');
+  assert.match(text, /(north|south|east|west)/i, text);
+  assert.match(text, /angle gauge/i, text);
+  assert.deepEqual(errors, []);
+});
