@@ -76,6 +76,21 @@ fn utc_jd(field: &'static str, text: &str) -> Result<f64, EngineError> {
     Ok(t.utc_jd)
 }
 
+/// How the train turns the view, relative to the naked eye, in words for a card
+/// ("upside down (turned 180°)", "mirror-reversed left–right"): the part of
+/// `orient::describe` that does not change through the night on an alt-azimuth mount.
+fn orientation_note(train: &crate::optics::train::Train) -> String {
+    let state = crate::orient::MountState { parallactic_rad: 0.0, alt_rad: 45f64.to_radians(), pier_side: None, user_rotation_rad: 0.0, dec_rad: Some(0.3) };
+    match crate::orient::orientation(train, &state) {
+        Ok(view) => {
+            let text = crate::orient::describe(&view, 0.0).text;
+            let body = text.split(", zenith").next().unwrap_or("").to_string();
+            format!("The view is {body}.")
+        }
+        Err(_) => String::new(),
+    }
+}
+
 /// Plans the night (see module doc).
 pub fn plan(req: &PlanRequest, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result<Plan, EngineError> {
     let s = &req.scenario;
@@ -106,7 +121,8 @@ pub fn plan(req: &PlanRequest, cats: &Catalogs, eph: Option<&Ephemeris>) -> Resu
     }
     let mut stations = Vec::new();
     for sp in &specs {
-        stations.push(wire::station_from_trains(&sp.name, &sp.trains, &[]).map_err(|e| EngineError::Optics(format!("station {}: {e}", sp.name)))?);
+        let notes: Vec<String> = sp.trains.iter().map(orientation_note).collect();
+        stations.push(wire::station_from_trains(&sp.name, &sp.trains, &notes).map_err(|e| EngineError::Optics(format!("station {}: {e}", sp.name)))?);
     }
     // Candidates: Sun, Moon, planets; Messier and bright NGC/IC objects.
     let mut targets = wire::body_candidates(eph, &site, start, end, 0.5).map_err(|e| EngineError::Plan(e.to_string()))?;

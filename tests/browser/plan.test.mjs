@@ -23,6 +23,9 @@ test('the event plan gives a card per station and the safety card; print view sh
   assert.equal(await page.isVisible('#view'), false, 'print view hides the eyepiece view');
   assert.equal(await page.isVisible('#plan-out'), true);
   await screenshot(page, 'plan-print.png');
+  // One print-view picture per card.
+  const cards = await page.$$('#plan-out .card');
+  for (const [i, c] of cards.entries()) await c.screenshot({ path: new URL(`../out/plan-card-${i + 1}.png`, import.meta.url).pathname });
   assert.deepEqual(errors, []);
 });
 

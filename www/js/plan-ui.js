@@ -1,6 +1,7 @@
 // The night plan (Plan tab: station cards, timeline, cautions, printable) and the find card
 // (Target tab: pointing in words, a star-hop route, dial readings). Text only: the engine computes.
-import { toScenario } from './scenario.js';
+import { toScenario, trainFor } from './scenario.js';
+import { paint } from './view.js';
 import { zonedToUtcMs, utcToZoned, isoUtc, zoneOffsetMs } from './time.js';
 
 const $ = (id) => document.getElementById(id);
@@ -21,7 +22,24 @@ export function planRequest(state) {
   return { scenario: toScenario(state), start_utc: isoUtc(w.start), end_utc: isoUtc(w.end), utc_offset_min: w.offsetMin };
 }
 
-function renderCard(card) {
+/** The eyepiece of a station whose magnification is nearest the card's. */
+function eyepieceFor(kit, st, mag) {
+  let best = 0, err = Infinity;
+  st.eyepieces.forEach((_, i) => {
+    const t = trainFor(kit, st, i);
+    const F = t.instrument.focal_length_mm;
+    const mod = t.accessories.find((a) => a.kind === 'barlow' || a.kind === 'reducer');
+    const ep = t.accessories.find((a) => a.kind === 'eyepiece');
+    if (!F || !ep) return;
+    const m = (F * (mod ? mod.factor : 1)) / ep.focal_length_mm;
+    if (Math.abs(m - mag) < err) { err = Math.abs(m - mag); best = i; }
+  });
+  return best;
+}
+
+const jdToMs = (jd) => (jd - 2440587.5) * 86400000;
+
+function renderCard(card, ctx) {
   const box = el('article', 'card');
   box.append(el('h3', null, card.station));
   for (const c of card.cautions || []) box.append(el('p', 'caution', c));
@@ -34,6 +52,14 @@ function renderCard(card) {
     const ul = el('ul', 'facts');
     for (const f of facts.concat(e.access_notes || [])) ul.append(el('li', null, f));
     sec.append(ul);
+    if (ctx) {
+      // A small picture of the view at the target's best time, drawn by the engine.
+      const canvas = el('canvas', 'cardview');
+      canvas.setAttribute('role', 'img');
+      canvas.setAttribute('aria-label', `View of ${e.target}`);
+      sec.append(canvas);
+      ctx.pending.push({ canvas, entry: e });
+    }
     if ((e.talking_points || []).length) {
       const tp = el('ul', 'talk');
       for (const t of e.talking_points) tp.append(el('li', null, t));
@@ -56,7 +82,8 @@ export function renderPlan(app) {
   }
   const nodes = [];
   for (const c of plan.cautions || []) nodes.push(el('p', 'caution', c.text || c.message || String(c.words || JSON.stringify(c))));
-  for (const card of plan.cards || []) nodes.push(renderCard(card));
+  const pending = [];
+  (plan.cards || []).forEach((card) => nodes.push(renderCard(card, { pending })));
   if (plan.cautions_card) {
     const cc = el('article', 'card');
     cc.append(el('h3', null, plan.cautions_card.title));
@@ -67,6 +94,27 @@ export function renderPlan(app) {
   }
   out.replaceChildren(...nodes);
   $('plan-print').hidden = false;
+  // Paint the small views once the canvases are laid out.
+  const spare = app.host.secondary('cards');
+  let k = 0;
+  (plan.cards || []).forEach((card, i) => {
+    const st = app.state.kit.stations[i];
+    for (const e of card.entries || []) {
+      const p = pending[k++];
+      if (!p || !st) continue;
+      const tp = (plan.targets || [])[e.target_index];
+      if (!tp) continue;
+      try {
+        const when = tp.best_utc_jd ? jdToMs(tp.best_utc_jd) : app.state.utc_ms;
+        const sc = toScenario(app.state, { stationId: st.id, eyepieceIndex: eyepieceFor(app.state.kit, st, e.magnification), target: tp.id, utc_ms: when });
+        app.host.call((eng) => eng.setScenario(sc), spare);
+        paint(app.host, spare, p.canvas, document.documentElement.dataset.night === '1', false);
+      } catch (err) {
+        if (err.engineDied) throw err;
+        p.canvas.replaceWith(el('p', 'note', `(no picture: ${err.message})`));
+      }
+    }
+  });
 }
 
 export function renderFind(app) {
