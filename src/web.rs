@@ -103,6 +103,19 @@ impl Engine {
         to_js(&self.core.find_card(spec).map_err(err)?)
     }
 
+    /// Switches this engine's view to the finder's view (same finder object as `findCard`),
+    /// with the main field ringed and the route drawn; then `render` as usual.
+    #[wasm_bindgen(js_name = finderView)]
+    pub fn finder_view(&mut self, finder: JsValue) -> Result<JsValue, JsValue> {
+        let spec = if finder.is_undefined() || finder.is_null() {
+            None
+        } else {
+            let text = json_text(&finder)?;
+            Some(serde_json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
+        };
+        to_js(&self.core.finder_view(spec).map_err(err)?)
+    }
+
     #[wasm_bindgen(js_name = encodeLink)]
     pub fn encode_link(&self, scenario: JsValue) -> Result<String, JsValue> {
         let s = scenario_from(scenario)?;

@@ -138,3 +138,22 @@ fn find_card_for_m13_from_the_demo_site() {
         assert!(card.route_error.is_some());
     }
 }
+
+#[test]
+fn finder_view_is_inverted_and_rings_the_main_field() {
+    let mut e = engine();
+    e.set_scenario(scenario("M13", REFRACTOR_DIAGONAL, "2026-06-20T21:30:00Z")).unwrap();
+    let main_field = e.figures().unwrap().true_field_deg;
+    let f = e.finder_view(None).unwrap();
+    // An 8×50 straight-through finder: 6° field (the spec), upside down (no erecting optics).
+    assert!((f.true_field_deg - 6.0).abs() < 0.01, "{}", f.true_field_deg);
+    assert!(!f.mirrored && f.orientation.starts_with("upside down"), "{}", f.orientation);
+    let c = e.composed().unwrap();
+    let ring = c.scene.overlays.iter().find_map(|o| match o {
+        nightfield::scene::Overlay::Ring { radius_rad, .. } => Some(*radius_rad),
+        _ => None,
+    });
+    assert!((ring.unwrap().to_degrees() * 2.0 - main_field).abs() < 1e-9);
+    e.render(512, 512, 1.0).unwrap();
+    write_png("engine_finder_m13", 512, 512, e.pixels());
+}

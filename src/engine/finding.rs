@@ -47,3 +47,36 @@ pub fn card(c: &Composed, cats: &Catalogs, eph: Option<&Ephemeris>, stars: &[Hop
     };
     find_card(&req).map_err(|e| EngineError::Target(e.to_string()))
 }
+
+/// The finder's own view of the target: the scenario recomposed with the finder as the
+/// train (its orientation, field and star limit), the main scope's field as a ring and
+/// the star-hop route as a path over it.
+pub fn finder_scene(
+    main: &Composed,
+    scenario: &crate::scenario::Scenario,
+    cats: &Catalogs,
+    eph: Option<&Ephemeris>,
+    stars: &[HopStar],
+    spec: FinderSpec,
+) -> Result<Composed, EngineError> {
+    let finder = Finder::new(spec.clone()).map_err(|e| EngineError::Target(format!("finder: {e}")))?;
+    let card = card(main, cats, eph, stars, spec)?;
+    let mut s = scenario.clone();
+    s.train = Some(finder.to_train());
+    s.view.pan_arcmin = [0.0, 0.0];
+    let mut c = super::compose::compose(&s, cats, eph)?;
+    let frame = super::compose::ApparentFrame::new(&c.instant, &c.site);
+    let center = c.scene.center;
+    if let Some(off) = crate::scene::gnomonic(center, main.aim.apparent) {
+        c.scene.overlays.push(crate::scene::Overlay::Ring { center: off, radius_rad: main.optics.true_field_rad / 2.0 });
+    }
+    if let Some(route) = card.route.as_ref() {
+        let points: Vec<glam::DVec2> = route
+            .points
+            .iter()
+            .filter_map(|p| crate::scene::gnomonic(center, frame.fixed(p.pos)))
+            .collect();
+        c.scene.overlays.push(crate::scene::Overlay::Path { points });
+    }
+    Ok(c)
+}

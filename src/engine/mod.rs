@@ -243,6 +243,30 @@ impl Engine {
         finding::card(c, &self.cats, self.eph.as_ref(), stars, spec)
     }
 
+    /// Switches the current view to the finder's view of the target (orientation, field,
+    /// star limit of the finder), with the main scope's field ringed and the star-hop route
+    /// drawn; `render`, `pan` and `zoom` then draw it. `set_scenario` returns to the main view.
+    pub fn finder_view(&mut self, finder: Option<crate::find::finder::FinderSpec>) -> Result<ViewFigures, EngineError> {
+        let spec = finder.unwrap_or(crate::find::finder::FinderSpec {
+            kind: crate::find::finder::FinderKind::StraightThrough,
+            aperture_mm: 50.0,
+            magnification: 8.0,
+            true_field_deg: 6.0,
+        });
+        if self.route_stars.is_none() {
+            self.route_stars = Some(finding::route_stars(&self.cats));
+        }
+        let main = self.composed.as_ref().ok_or(EngineError::NoScenario)?;
+        let s = self.scenario.as_ref().ok_or(EngineError::NoScenario)?;
+        let stars = self.route_stars.as_deref().unwrap_or(&[]);
+        let c = finding::finder_scene(main, s, &self.cats, self.eph.as_ref(), stars, spec)?;
+        let fig = figures::view_figures(&c);
+        self.composed = Some(c);
+        self.pan_px = (0.0, 0.0);
+        self.zoom = 1.0;
+        Ok(fig)
+    }
+
     /// A share link fragment for a scenario (compact, versioned, checksummed).
     pub fn encode_link(&self, s: &Scenario) -> Result<String, EngineError> {
         s.validate().map_err(EngineError::Scenario)?;

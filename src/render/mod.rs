@@ -246,9 +246,44 @@ pub fn draw(scene: &Scene, view: &ViewParams, frame: &mut Frame) -> Result<Vec<L
         y = rows.1;
     }
     shapes::draw_outlines(&mut cv, scene, &t, view.dpr, &pal);
+    draw_overlays(&mut cv, scene, &t, view.dpr, &pal);
     let mut labels = markers::draw_markers(&mut cv, scene, &t, view.dpr, &pal);
     labels.extend(object_labels(scene, &t, view));
     Ok(labels)
+}
+
+/// Guide lines (finder views): the main field as a ring, the star-hop route as a path, in amber.
+fn draw_overlays(cv: &mut raster::Canvas, scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette) {
+    let colour = pal.map([1.0, 0.55, 0.15]);
+    let w = 1.4 * dpr;
+    let px = |o: DVec2| {
+        let p = t.to_px(o);
+        (p.0, p.1)
+    };
+    for o in &scene.overlays {
+        match o {
+            crate::scene::Overlay::Ring { center, radius_rad } => {
+                if !(center.is_finite() && radius_rad.is_finite() && *radius_rad > 0.0) {
+                    continue;
+                }
+                const N: usize = 72;
+                let at = |k: usize| {
+                    let a = k as f64 * std::f64::consts::TAU / N as f64;
+                    px(*center + DVec2::new(libm::cos(a), libm::sin(a)) * *radius_rad)
+                };
+                for k in 0..N {
+                    cv.line(at(k), at(k + 1), w, colour, 0.9);
+                }
+            }
+            crate::scene::Overlay::Path { points } => {
+                for pair in points.windows(2) {
+                    if pair[0].is_finite() && pair[1].is_finite() {
+                        cv.line(px(pair[0]), px(pair[1]), w, colour, 0.8);
+                    }
+                }
+            }
+        }
+    }
 }
 
 /// Rows per band: 16 rows of a 1024-px frame are 64 KB, well inside L2.

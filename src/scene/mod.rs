@@ -218,6 +218,17 @@ pub struct Scene {
     /// Faintest star drawn (the brightness scale is anchored here).
     pub mag_limit: f32,
     pub labels: Vec<SceneLabel>,
+    /// Guide lines over the view (a finder's view: the main scope's field, a star-hop route).
+    pub overlays: Vec<Overlay>,
+}
+
+/// A guide line drawn over the sky, in tangent-plane offsets (radians).
+#[derive(Clone, Debug, PartialEq)]
+pub enum Overlay {
+    /// A circle, e.g. the main telescope's field inside a finder's view.
+    Ring { center: DVec2, radius_rad: f64 },
+    /// A polyline through the points, e.g. a star-hop route.
+    Path { points: Vec<DVec2> },
 }
 
 impl Scene {
@@ -234,6 +245,7 @@ impl Scene {
             sky: SkyLight::default(),
             mag_limit,
             labels: Vec::new(),
+            overlays: Vec::new(),
         }
     }
 

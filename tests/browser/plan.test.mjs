@@ -38,5 +38,15 @@ test('the find card says where to look and how to hop there', async (t) => {
   const text = await page.textContent('#find-out');
   assert.match(text, /(north|south|east|west)/i, text);
   assert.match(text, /angle gauge/i, text);
+  // The finder's picture is drawn by the engine (lit pixels in the canvas).
+  const lit = await page.evaluate(() => {
+    const c = document.querySelector('#find-out canvas');
+    const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+    let n = 0;
+    for (let i = 0; i < d.length; i += 4) if (d[i] > 120) n++;
+    return n;
+  });
+  assert.ok(lit > 50, `finder view lit pixels: ${lit}`);
+  await screenshot(page, 'find-card.png');
   assert.deepEqual(errors, []);
 });

@@ -64,11 +64,23 @@ test('brightest star of the field lands on the expected pixel (within 2 px)', as
       const i = (y * c.width + x) * 4, v = d[i] + d[i + 1] + d[i + 2];
       if (v > best) { best = v; bx = x; by = y; }
     }
-    // Intensity-weighted centroid (pixel centres at i + 0.5) over a 21 px box around the peak.
-    let sw = 0, sx = 0, sy = 0;
-    for (let y = Math.max(0, by - 10); y <= Math.min(c.height - 1, by + 10); y++) for (let x = Math.max(0, bx - 10); x <= Math.min(c.width - 1, bx + 10); x++) {
-      const i = (y * c.width + x) * 4, v = d[i] + d[i + 1] + d[i + 2];
-      sw += v; sx += v * (x + 0.5); sy += v * (y + 0.5);
+    // Intensity-weighted centroid (pixel centres at i + 0.5) above the box's faintest level,
+    // in a 41 px box re-centred on the centroid a few times: a bright star's core is a
+    // saturated plateau, so the first peak pixel is its top-left corner, not its centre.
+    let cx = bx + 0.5, cy = by + 0.5, sw = 0, sx = 0, sy = 0;
+    for (let pass = 0; pass < 4; pass++) {
+      const x0 = Math.max(0, Math.floor(cx) - 20), x1 = Math.min(c.width - 1, Math.floor(cx) + 20);
+      const y0 = Math.max(0, Math.floor(cy) - 20), y1 = Math.min(c.height - 1, Math.floor(cy) + 20);
+      let floor = Infinity;
+      for (let y = y0; y <= y1; y++) for (let x = x0; x <= x1; x++) {
+        const i = (y * c.width + x) * 4; floor = Math.min(floor, d[i] + d[i + 1] + d[i + 2]);
+      }
+      sw = 0; sx = 0; sy = 0;
+      for (let y = y0; y <= y1; y++) for (let x = x0; x <= x1; x++) {
+        const i = (y * c.width + x) * 4, v = d[i] + d[i + 1] + d[i + 2] - floor;
+        sw += v; sx += v * (x + 0.5); sy += v * (y + 0.5);
+      }
+      cx = sx / sw; cy = sy / sw;
     }
     return { w: c.width, h: c.height, x: sx / sw, y: sy / sw, peak: best };
   });

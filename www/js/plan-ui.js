@@ -137,7 +137,22 @@ export function renderFind(app) {
     nodes.push(el('p', 'note', card.route_error));
   }
   if (card.dials) nodes.push(el('p', null, card.dials.words));
+  const canvas = el('canvas', 'finderview');
+  canvas.setAttribute('role', 'img');
+  canvas.setAttribute('aria-label', 'The finder\'s view: the main telescope\'s field ringed, the star-hop route drawn');
+  const cap = el('p', 'sub', 'In the 8×50 finder (as it shows it): the ring is the telescope\'s field, the line the route.');
+  nodes.push(canvas, cap);
   out.replaceChildren(...nodes);
+  try {
+    const spare = app.host.secondary('finder');
+    app.host.call((e) => e.setScenario(toScenario(app.state)), spare);
+    const f = app.host.call((e) => e.finderView(), spare);
+    cap.textContent += ` ${f.orientation}.`;
+    paint(app.host, spare, canvas, document.documentElement.dataset.night === '1', false);
+  } catch (err) {
+    if (err.engineDied) throw err;
+    canvas.replaceWith(el('p', 'note', `(no finder picture: ${err.message})`));
+  }
 }
 
 export function initPlanUi(app) {
