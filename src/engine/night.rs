@@ -33,7 +33,8 @@ pub struct PlanRequest {
     /// Azimuth sectors that have clouded over (a quick re-plan leaves them out).
     #[serde(default)]
     pub clouded: Vec<AzSector>,
-    /// Deep-sky candidates: Messier objects plus NGC/IC objects brighter than this V.
+    /// Deep-sky candidates: Messier objects plus NGC/IC objects brighter than this V
+    /// (not NGC/IC records of single or double stars: `wire::is_deep_sky_candidate`).
     #[serde(default = "default_dso_vmag")]
     pub dso_vmag_limit: f64,
 }
@@ -124,14 +125,13 @@ pub fn plan(req: &PlanRequest, cats: &Catalogs, eph: Option<&Ephemeris>) -> Resu
         let notes: Vec<String> = sp.trains.iter().map(orientation_note).collect();
         stations.push(wire::station_from_trains(&sp.name, &sp.trains, &notes).map_err(|e| EngineError::Optics(format!("station {}: {e}", sp.name)))?);
     }
-    // Candidates: Sun, Moon, planets; Messier and bright NGC/IC objects.
+    // Candidates: Sun, Moon, planets; Messier and bright NGC/IC objects (no NGC/IC stars).
     let mut targets = wire::body_candidates(eph, &site, start, end, 0.5).map_err(|e| EngineError::Plan(e.to_string()))?;
     let mid = crate::time::Instant::from_utc_jd((start + end) / 2.0).map_err(|e| EngineError::Time(e.to_string()))?;
     let npb = crate::sky::frames::npb_matrix(mid.tt_jd);
     for id in 0..cats.dso_count() as u32 {
         if let Some(d) = cats.dso(id) {
-            let bright = d.vmag.or(d.bmag).map(|m| (m as f64) <= req.dso_vmag_limit).unwrap_or(false);
-            if d.messier > 0 || bright {
+            if wire::is_deep_sky_candidate(d, req.dso_vmag_limit) {
                 if let Some(c) = wire::candidate_from_dso_with(d, &npb) {
                     targets.push(c);
                 }

@@ -100,6 +100,20 @@ fn kind_of(k: DsoKind) -> Option<TargetKind> {
     })
 }
 
+/// Whether an OpenNGC record is offered to the planner as a deep-sky sight: every Messier
+/// object (M 40 is a double star), and NGC/IC objects brighter than `vmag_limit` (V, else B)
+/// unless OpenNGC types them as a single or double star ("*", "**"): such records are stars
+/// that got an NGC/IC number ("NGC 1990" is Alnilam), not deep-sky objects.
+pub fn is_deep_sky_candidate(d: &Dso, vmag_limit: f64) -> bool {
+    if d.messier > 0 {
+        return true;
+    }
+    if matches!(d.kind, DsoKind::Star | DsoKind::DoubleStar) {
+        return false;
+    }
+    d.vmag.or(d.bmag).map(|m| f64::from(m) <= vmag_limit).unwrap_or(false)
+}
+
 /// A deep-sky candidate from an OpenNGC record, its J2000 place carried to the
 /// equator and equinox of date at `tt_jd` (IAU 2006/2000B NPB matrix of `sky::frames`).
 /// None for kinds the planner does not show (dark nebulae, novae) or records without size and brightness.
