@@ -203,6 +203,41 @@ fn place_of(star: &crate::sky::catalog::Star) -> CatalogPlace {
     CatalogPlace::from(star)
 }
 
+/// Extinction coefficient and eye pupil the view's verdicts use: the planner's defaults
+/// (`engine::night`), so the picture and the station card agree.
+const VIEW_EXTINCTION_K_MAG: f64 = 0.2;
+const VIEW_EYE_PUPIL_MM: f64 = 6.0;
+
+/// The catalogued mean surface brightness (OpenNGC, mostly B band), or, where the
+/// catalogue has none, the integrated magnitude spread over the outline:
+/// μ = m + 2.5 log10(area in arcsec²) (the definition of a mean surface brightness).
+pub fn physical_mean_mu(d: &crate::sky::dso::Dso) -> Option<f32> {
+    if let Some(mu) = d.surf_br_mag_arcsec2 {
+        return Some(mu);
+    }
+    let m = d.vmag.or(d.bmag)?;
+    let major = d.major_arcmin.filter(|a| *a > 0.0)? as f64;
+    let minor = d.minor_arcmin.filter(|a| *a > 0.0).map_or(major, f64::from);
+    let area_arcsec2 = core::f64::consts::FRAC_PI_4 * major * minor * 3600.0;
+    Some((m as f64 + 2.5 * libm::log10(area_arcsec2)) as f32)
+}
+
+/// The mean surface brightness to draw for a glow whose visibility for a visitor is
+/// `strength` (`plan::visibility::view_strength`, 0..1): 0 draws nothing; otherwise the
+/// mean contrast over the sky rises on a log scale from 0.02 (just seen with averted
+/// vision) through about 0.1 (plainly visible) to 1 (easy, bright). Our display choice:
+/// the eye judges a glow by its margin over the threshold, so the screen shows that
+/// margin rather than the raw ratio, which a monitor cannot reproduce at the eyepiece's
+/// dark adaptation.
+pub fn drawn_mean_mu(strength: f32, sky_mu: f64) -> f32 {
+    if !(strength > 0.0) || !sky_mu.is_finite() {
+        return f32::INFINITY;
+    }
+    let s = f64::from(strength.min(1.0));
+    let contrast = 0.02 * libm::pow(50.0, ((s - 0.15) / 0.85).max(0.0));
+    (sky_mu - 2.5 * libm::log10(contrast)) as f32
+}
+
 /// Builds the scene and the numbers beside it for a validated scenario.
 pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result<Composed, EngineError> {
     let t = instant_of(s)?;
@@ -257,16 +292,19 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
             }
         }
     }
-    // Deep-sky objects overlapping the field.
+    // Deep-sky objects overlapping the field (scene index, record) for the verdict below.
+    let mut drawn_dsos: Vec<(usize, &crate::sky::dso::Dso)> = Vec::new();
     for id in cats.dsos_overlapping(icrs_center, reach) {
         if let Some(d) = cats.dso(id) {
             let p = frame.fixed(Equatorial { ra_rad: d.ra_rad, dec_rad: d.dec_rad });
             let Some(major_arcmin) = d.major_arcmin else { continue };
             let major = (major_arcmin as f64 / 60.0).to_radians() / 2.0;
             let minor = (d.minor_arcmin.unwrap_or(major_arcmin) as f64 / 60.0).to_radians() / 2.0;
-            let sb = d.surf_br_mag_arcsec2.unwrap_or(22.0);
+            let sb = physical_mean_mu(d).unwrap_or(f32::INFINITY);
             let label = if s.view.labels { Some(d.designation()) } else { None };
-            scene.add_dso(p, major.max(1e-6), minor.max(1e-6), d.pa_deg.unwrap_or(0.0).to_radians() as f64, dso_look(d.kind), sb, label.as_deref());
+            if scene.add_dso(p, major.max(1e-6), minor.max(1e-6), d.pa_deg.unwrap_or(0.0).to_radians() as f64, dso_look(d.kind), sb, label.as_deref()) {
+                drawn_dsos.push((scene.dsos.len() - 1, d));
+            }
         }
     }
 
@@ -274,6 +312,8 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
     let mut bodies = Vec::new();
     let (mut sun_alt_rad, mut sun_separation_rad, mut moon_alt_rad) = (None, None, None);
     let mut moon_nl = 0.0;
+    // Moon's phase angle (180° = new): dims the sky in the verdict; new when unknown.
+    let mut moon_phase_deg = 180.0;
     if let Some(eph) = eph {
         for b in BodyId::ALL {
             scene.add_solar_body(eph, b, &t, &site).map_err(|e| EngineError::Solar(e.to_string()))?;
@@ -288,6 +328,7 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
                     }
                     BodyId::Moon => {
                         moon_alt_rad = Some(h.alt_rad);
+                        moon_phase_deg = st.phase_angle_rad.to_degrees();
                         if h.alt_rad > 0.0 {
                             let half_pi = std::f64::consts::FRAC_PI_2;
                             moon_nl = crate::scene::skylight::moonlight_nl(
@@ -315,6 +356,24 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         scene.set_sidereal_drift();
     }
     scene.set_sky(sky_mu, moon_nl, optics.exit_pupil_mm, cond.eye_pupil_mm);
+    // Through an eyepiece, each deep-sky glow is drawn as strongly as the planner's
+    // verdict for a visitor says (the card and the picture agree); cameras keep the
+    // catalogued surface brightness.
+    if let Ok(Some(option)) = crate::plan::wire::train_option(&train, "", "") {
+        let ext_mag = VIEW_EXTINCTION_K_MAG * crate::sky::refraction::airmass(horizontal.alt_rad);
+        for (i, d) in &drawn_dsos {
+            let strength = match crate::plan::wire::candidate_from_dso_with(d, &glam::DMat3::IDENTITY) {
+                Some(c) => {
+                    let a = crate::plan::schedule::assess_candidate(&c, &option, VIEW_EYE_PUPIL_MM, moon_phase_deg, ext_mag, scene.sky.sky_mag_arcsec2);
+                    crate::plan::visibility::view_strength(&a)
+                }
+                None => 0.0,
+            };
+            if let Some(sd) = scene.dsos.get_mut(*i) {
+                sd.surf_br_mag_arcsec2 = drawn_mean_mu(strength, scene.sky.sky_mag_arcsec2);
+            }
+        }
+    }
     if s.view.labels {
         scene.add_label(aim.apparent, &aim.name, LabelKind::Target);
     }

@@ -91,9 +91,10 @@ fn kind_of(k: DsoKind) -> Option<TargetKind> {
     Some(match k {
         Galaxy | GalaxyPair | GalaxyTriplet | GalaxyGroup => TargetKind::Galaxy,
         GlobularCluster => TargetKind::GlobularCluster,
-        OpenCluster | Association | ClusterNebula => TargetKind::OpenCluster,
+        OpenCluster | Association => TargetKind::OpenCluster,
         PlanetaryNebula => TargetKind::PlanetaryNebula,
-        HiiRegion | EmissionNebula | Nebula | SupernovaRemnant => TargetKind::EmissionNebula,
+        // A cluster with nebula (M 42) is shown for its glow; its stars come from the star catalogs.
+        ClusterNebula | HiiRegion | EmissionNebula | Nebula | SupernovaRemnant => TargetKind::EmissionNebula,
         ReflectionNebula => TargetKind::ReflectionNebula,
         Star | DoubleStar => TargetKind::Star,
         DarkNebula | Nova | Other => return None,
