@@ -138,3 +138,30 @@ fn talking_points_from_data() {
     assert_eq!(two_sig(3.14), "3.1");
     assert_eq!(local_hhmm(2_461_387.25, 60), "19:00");
 }
+
+#[test]
+fn showpieces_draw_the_queue_before_anonymous_objects() {
+    // Common practice at public nights: the famous, bright objects first. Candidates as the
+    // planner builds them from OpenNGC (M 31: V 3.4, named; NGC 7686: V 5.6, unnamed).
+    let c = |id: &str, name: &str, v: f64| Candidate {
+        id: id.into(),
+        name: name.into(),
+        kind: TargetKind::Galaxy,
+        position: TargetPosition::Fixed { ra_rad: 0.0, dec_rad: 0.0 },
+        major_arcmin: 10.0,
+        minor_arcmin: 10.0,
+        vmag: Some(v),
+        surface_mu: None,
+        surface_mu_is_b: false,
+        bv: None,
+        distance_ly: None,
+        distance_au: None,
+    };
+    let famous = nightfield::plan::assign::showpiece_bonus(&c("M 31", "M 31 (Andromeda Galaxy)", 3.4));
+    let anonymous = nightfield::plan::assign::showpiece_bonus(&c("NGC 7686", "NGC 7686", 5.6));
+    let faint = nightfield::plan::assign::showpiece_bonus(&c("NGC 1", "NGC 1", 12.9));
+    assert!(famous > anonymous && anonymous > faint, "{famous} {anonymous} {faint}");
+    assert_eq!(faint, 0.0);
+    // Never enough to lift an object over a better verdict class (10 points per class).
+    assert!(famous < 10.0);
+}

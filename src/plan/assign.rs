@@ -369,6 +369,7 @@ impl Prepared {
                     if bright_body {
                         score += 12.0;
                     }
+                    score += showpiece_bonus(&inp.targets[t]);
                     if prev[s] == Some(t) {
                         score += if run[s] < max_run { 4.0 } else { -25.0 };
                     } else if shown[s][t] {
@@ -449,4 +450,17 @@ impl Prepared {
             access_notes: notes,
         });
     }
+}
+
+/// How much a deep-sky object draws a queue, beyond its verdict (our choice, stated):
+/// up to 3 points for integrated brightness (V 9 → 0, V 3 or brighter → 3) and 1.5 for
+/// an object with a common name (the famous ones: "Andromeda Galaxy", "Pleiades"),
+/// so a public night shows M 31 before an equally easy but anonymous open cluster.
+pub fn showpiece_bonus(c: &super::input::Candidate) -> f64 {
+    if matches!(c.kind, TargetKind::Moon | TargetKind::Planet | TargetKind::Sun) {
+        return 0.0;
+    }
+    let bright = c.vmag.map_or(0.0, |m| ((9.0 - m) / 2.0).clamp(0.0, 3.0));
+    let named = if c.name.contains('(') { 1.5 } else { 0.0 };
+    bright + named
 }
