@@ -118,9 +118,16 @@ const app = {
   paintAll() {
     const night = document.documentElement.dataset.night === '1';
     try {
-      paint(this.host, null, $('view'), night, this.state.view.labels !== false);
+      const info = paint(this.host, null, $('view'), night, this.state.view.labels !== false);
       const ep = this.currentEyepiece();
-      $('view-caption').textContent = `${this.station()?.name || ''}${ep ? ` · ${ep.name}` : ''}`;
+      const when = utcToZoned(this.state.utc_ms, this.state.site.tz).time;
+      const main = document.createElement('span');
+      main.textContent = `${this.station()?.name || ''}${ep ? ` · ${ep.name}` : ''} · at ${when}`;
+      const drift = document.createElement('span');
+      drift.className = 'drift';
+      // The drift words sit here rather than on the drawing, where they crossed stars and the rim.
+      if (info.drift) drift.textContent = `Without a drive the target ${info.drift.replace(/^leaves field/, 'leaves the field')} (arrow at the edge).`;
+      $('view-caption').replaceChildren(main, drift);
       if (this.state.view.compare) this.paintCompare(night);
     } catch (e) {
       this.showError(e.message || String(e));
