@@ -10,6 +10,7 @@ import { encodeQr, drawQr } from './qr.js';
 import { loadTiers, showTiers, registerWorker, askPersist } from './offline.js';
 import { zonedToUtcMs, utcToZoned, isValidZone, siteLabel } from './time.js';
 import { initPlanUi } from './plan-ui.js';
+import { tonightRequest, tonightKey, tonightRows, rowWords, GROUPS, COMPACT_ROWS, WINDOW_HOURS } from './tonight.js';
 
 const $ = (id) => document.getElementById(id);
 const SESSION_KEY = 'nightfield.session';
@@ -205,55 +206,65 @@ const app = {
     }
   },
 
-  /** "Up tonight": the engine's night plan if it has one; otherwise each candidate is set up
-   *  in a spare engine at this site and time and kept if its altitude (from the engine) is above 10°. */
-  tonightRows() {
-    const eng = this.host.engine;
-    if (typeof eng.planNight === 'function') {
-      // The night plan from this time for four hours: targets above 10° now, with their best time.
-      const plan = this.host.call((e) => e.planNight(toScenario(this.state)));
-      const rows = (plan?.targets || [])
-        .filter((t) => t.candidate && Array.isArray(t.alt_deg) && t.alt_deg[0] > 10)
-        .map((t) => ({ name: t.name, query: t.id, alt_deg: t.alt_deg[0], kind: String(t.kind).replace(/-/g, ' '),
-          best: t.best_local }));
-      return rows.sort((a, b) => b.alt_deg - a.alt_deg);
-    }
-    const spare = this.host.secondary('tonight');
-    const rows = [];
-    for (const name of TONIGHT_CANDIDATES) {
-      try {
-        const f = this.host.call((e) => e.setScenario(toScenario(this.state, { target: name })), spare);
-        if (f.alt_deg > 10) rows.push({ name: f.target_name || name, query: name, alt_deg: f.alt_deg, kind: f.target_kind });
-      } catch (e) {
-        if (e.engineDied) throw e; // not loaded yet or not found: leave it out
+  /** "Up tonight": the engine's night plan from this time for four hours (cached per site,
+   *  time and stations), ordered by tonight.js; catalogue magnitudes from the engine's resolve. */
+  tonightList() {
+    const req = tonightRequest(this.state);
+    const key = `${this.host.catalogs.length} ${tonightKey(req)}`;
+    if (this.tonight && this.tonight.key === key) return this.tonight;
+    const plan = this.host.call((e) => e.planNight(req));
+    const magOf = (id) => {
+      try { return this.host.call((e) => e.resolve(id))?.vmag ?? null; } catch (err) {
+        if (err.engineDied) throw err;
+        return null;
       }
-    }
-    return rows.sort((a, b) => b.alt_deg - a.alt_deg);
+    };
+    this.tonight = { key, plan, rows: tonightRows(plan, magOf), shown: COMPACT_ROWS };
+    return this.tonight;
   },
 
   renderTonight() {
     const list = $('tonight');
-    let rows;
-    try { rows = this.tonightRows(); } catch (e) {
+    let t;
+    try { t = this.tonightList(); } catch (e) {
       list.replaceChildren(li(`The list could not be made: ${e.message}`));
+      $('tonight-more').hidden = true;
       return;
     }
-    if (!rows.length) { list.replaceChildren(li('Nothing from the list is above the horizon at this time.')); return; }
-    list.replaceChildren(...rows.slice(0, 40).map((r) => {
+    const from = utcToZoned(this.state.utc_ms, this.state.site.tz).time;
+    $('tonight-note').textContent = `From ${from} (site clock) for the next ${WINDOW_HOURS} hours. Tap one to show it.`;
+    if (!t.rows.length) {
+      list.replaceChildren(li(`Nothing the kit shows well is up between ${from} and ${WINDOW_HOURS} hours later. Change the time under Site & time.`));
+      $('tonight-more').hidden = true;
+      return;
+    }
+    const nodes = [];
+    let group = null;
+    for (const r of t.rows.slice(0, t.shown)) {
+      if (r.group !== group) {
+        group = r.group;
+        const h = li(GROUPS.find(([id]) => id === group)?.[1] || '');
+        h.className = 'group';
+        nodes.push(h);
+      }
       const b = document.createElement('button');
       b.type = 'button'; b.className = 'pick';
-      b.textContent = r.name || r.id || '?';
+      b.textContent = r.name;
       const sub = document.createElement('span'); sub.className = 'sub';
-      const bits = [];
-      if (typeof r.alt_deg === 'number') bits.push(`altitude ${r.alt_deg.toFixed(0)}°`);
-      if (r.kind) bits.push(r.kind);
-      if (r.best) bits.push(`best at ${r.best}`);
-      sub.textContent = bits.join(' · ');
+      sub.textContent = rowWords(r);
       b.append(sub);
-      b.addEventListener('click', () => this.setTarget(r.query || r.name || r.id));
+      b.addEventListener('click', () => {
+        // On a phone the view is far above the list: bring it back into sight.
+        if (this.setTarget(r.query) && $('view').getBoundingClientRect().top < 0) window.scrollTo({ top: 0, behavior: 'smooth' });
+      });
       const item = document.createElement('li'); item.append(b);
-      return item;
-    }));
+      item.dataset.group = r.group;
+      nodes.push(item);
+    }
+    list.replaceChildren(...nodes);
+    const left = t.rows.length - t.shown;
+    $('tonight-more').hidden = left <= 0;
+    $('tonight-more').textContent = `Show ${Math.min(left, COMPACT_ROWS)} more (${left} left)`;
   },
 
   setTarget(query) {
@@ -268,12 +279,6 @@ const app = {
     return true;
   },
 };
-
-// The Moon, the planets and bright deep-sky objects of both hemispheres (common outreach targets).
-const TONIGHT_CANDIDATES = ['Moon', 'Mercury', 'Venus', 'Mars', 'Jupiter', 'Saturn', 'Uranus', 'Neptune',
-  'M 31', 'M 42', 'M 45', 'M 44', 'M 13', 'M 57', 'M 27', 'M 81', 'M 82', 'M 51', 'M 35', 'M 36', 'M 37', 'M 38',
-  'M 1', 'M 33', 'M 3', 'M 5', 'M 15', 'M 2', 'M 8', 'M 11', 'M 17', 'M 20', 'M 22', 'M 104', 'NGC 869', 'NGC 884',
-  'NGC 7000', 'NGC 253', 'NGC 5139', 'NGC 104', 'NGC 3372'];
 
 function li(text) { const e = document.createElement('li'); e.textContent = text; return e; }
 
@@ -360,6 +365,11 @@ function initView() {
     }
   });
   $('alert').addEventListener('click', () => app.clearError());
+  $('tonight-more').addEventListener('click', () => {
+    if (!app.tonight) return;
+    app.tonight.shown += COMPACT_ROWS;
+    app.renderTonight();
+  });
   let resizeT = 0;
   window.addEventListener('resize', () => { clearTimeout(resizeT); resizeT = setTimeout(() => app.painted && app.paintAll(), 150); });
 }
