@@ -109,6 +109,16 @@ test('share link round trip gives identical canvas pixels', async (t) => {
     return { w: c.width, h: c.height, d: Array.from(c.getContext('2d').getImageData(0, 0, c.width, c.height).data) };
   });
   assert.equal(jsQR(Uint8ClampedArray.from(qr.d), qr.w, qr.h)?.data, link);
+  // Night mode: red and black only, dark modules on light (read without inverting).
+  await a.page.click('#night-toggle');
+  const nq = await a.page.evaluate(() => {
+    const c = document.getElementById('qr');
+    return { w: c.width, h: c.height, d: Array.from(c.getContext('2d').getImageData(0, 0, c.width, c.height).data) };
+  });
+  for (let i = 0; i < nq.d.length; i += 4) assert.ok(nq.d[i + 1] <= 0x2a && nq.d[i + 2] <= 0x2a, `non-red QR pixel ${nq.d.slice(i, i + 3)}`);
+  // (The link now carries night mode too.)
+  const nightLink = await a.page.inputValue('#share-link');
+  assert.equal(jsQR(Uint8ClampedArray.from(nq.d), nq.w, nq.h, { inversionAttempts: 'dontInvert' })?.data, nightLink);
   assert.deepEqual([...a.errors, ...b.errors], []);
 });
 
@@ -190,6 +200,7 @@ test('the Sun as target shows the solar caution', async (t) => {
   const c = page.locator('#solar-caution[role="alert"]');
   await c.waitFor({ state: 'visible', timeout: 10000 });
   assert.match(await c.textContent(), /full-aperture solar filter/);
+  assert.match(await c.textContent(), /local rules and trained practice/);
   // Back to a night target far from the Sun: the caution goes.
   await page.fill('#search', 'M 45');
   await page.click('#search-form button[type="submit"]');

@@ -8,12 +8,20 @@ test('the event plan gives a card per station and the safety card; print view sh
   await gotoReady(page, server.url);
   await page.waitForFunction(() => document.documentElement.dataset.allData === '1', null, { timeout: 60000 });
   await page.click('#tab-plan');
+  // The safety card is there before any plan is made: one tap opens it (the engine's card).
+  await page.click('#safety summary');
+  const safety = await page.textContent('#safety');
+  for (const re of [/Safety on the field/, /full-aperture solar filter/, /local rules and trained practice/, /Laser pointers only as local law allows/i, /ladders/, /Cables/]) {
+    assert.match(safety, re);
+  }
   await page.click('#plan-go');
   await page.waitForSelector('#plan-out .card');
   const titles = await page.$$eval('#plan-out .card h3', (hs) => hs.map((h) => h.textContent));
-  // The demo kit has two stations: two station cards and the safety card.
-  assert.equal(titles.length, 3, `cards: ${titles.join(' | ')}`);
-  assert.ok(titles.includes('Safety on the field'));
+  // The demo kit has two stations: two station cards.
+  assert.equal(titles.length, 2, `cards: ${titles.join(' | ')}`);
+  // Each showing names the eyepiece to use (the trains are named after them).
+  const facts = await page.$$eval('#plan-out .entry .facts li:first-child', (ls) => ls.map((l) => l.textContent));
+  for (const f of facts) assert.match(f, /^\d+ mm \d+° eyepiece.*: \d+×, field/, f);
   // Every scheduled showing names a time window inside the event hours (19:00–23:00 in the demo).
   const times = await page.$$eval('#plan-out .entry h4', (hs) => hs.map((h) => h.textContent.slice(0, 11)));
   assert.ok(times.length > 0);
@@ -22,6 +30,7 @@ test('the event plan gives a card per station and the safety card; print view sh
   await page.evaluate(() => document.body.classList.add('print-cards'));
   assert.equal(await page.isVisible('#view'), false, 'print view hides the eyepiece view');
   assert.equal(await page.isVisible('#plan-out'), true);
+  assert.equal(await page.isVisible('#safety-items'), true, 'the safety card prints too');
   await screenshot(page, 'plan-print.png');
   // One print-view picture per card.
   const cards = await page.$$('#plan-out .card');

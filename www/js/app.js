@@ -103,10 +103,12 @@ const app = {
       this.showError(e.message || String(e));
       return;
     }
-    renderFigures($('figures'), this.figures);
+    renderFigures($('figures'), this.figures, $('view-notes'));
     const caution = solarCaution(this.figures, targetLabel(this.state.target));
     $('solar-caution').hidden = !caution;
-    $('solar-caution').textContent = caution || '';
+    const title = document.createElement('strong');
+    if (caution) title.textContent = caution.title;
+    $('solar-caution').replaceChildren(...(caution ? [title, caution.text] : []));
     this.paintAll();
     const ep = this.currentEyepiece();
     $('print-summary').textContent = `${this.state.site.name} · ${siteLabel(this.state.utc_ms, this.state.site.tz)} · ${st.name}${ep ? ` · ${ep.name}` : ''} · ${targetLabel(this.state.target)}`;
@@ -199,7 +201,9 @@ const app = {
     try {
       const qr = encodeQr(link, link.length > 400 ? 'L' : 'M');
       const night = document.documentElement.dataset.night === '1';
-      drawQr(canvas.getContext('2d'), qr, 600, night ? '#ff2a1a' : '#000', night ? '#000' : '#fff');
+      // Night mode keeps red only, but in the usual polarity (dark modules on light): a
+      // camera reads that more surely than red modules on black.
+      drawQr(canvas.getContext('2d'), qr, 600, '#000', night ? '#ff2a1a' : '#fff');
       $('share-note').textContent = `Link: ${link.length} characters; QR code version ${qr.version}. Scan it with another phone's camera.`;
     } catch (e) {
       $('share-note').textContent = `The link is too long for a QR code (${e.message}); copy it instead.`;

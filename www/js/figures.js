@@ -30,27 +30,32 @@ export function figureRows(f) {
   add('Orientation', pick(f, 'orientation', 'orientation_words'));
   const alt = deg(f, 'alt_deg', 'alt_rad');
   add('Altitude', alt === undefined ? null : `${alt.toFixed(1)}°${alt < 0 ? ' (below the horizon)' : ''}`);
-  add('Azimuth', angle(deg(f, 'az_deg', 'az_rad')));
+  const az = deg(f, 'az_deg', 'az_rad');
+  add('Azimuth', az === undefined ? null : `${az.toFixed(1)}°`);
   add('Drift time', duration(pick(f, 'drift_s', 'drift_time_s')));
   add('Target size', pick(f, 'size_words'));
   add('Visibility', pick(f, 'visibility', 'visibility_words'));
   return rows;
 }
 
-export function renderFigures(dl, f) {
+export function renderFigures(dl, f, notes) {
   dl.replaceChildren();
   for (const [k, v] of figureRows(f || {})) {
     const dt = document.createElement('dt'); dt.textContent = k;
     const dd = document.createElement('dd'); dd.textContent = String(v);
     dl.append(dt, dd);
   }
-  for (const a of (f && Array.isArray(f.advice) ? f.advice : [])) {
-    const dd = document.createElement('dd'); dd.className = 'advice'; dd.textContent = String(a);
-    dl.append(dd);
-  }
+  // The engine's advice (exit pupil, field stop, ...) folds away under the figures: on a
+  // phone it pushed the panels a screen further down.
+  const advice = f && Array.isArray(f.advice) ? f.advice.map(String) : [];
+  if (!notes) return;
+  notes.hidden = !advice.length;
+  notes.querySelector('summary').textContent = `Notes on this view (${advice.length})`;
+  const ul = notes.querySelector('ul');
+  ul.replaceChildren(...advice.map((a) => { const li = document.createElement('li'); li.textContent = a; return li; }));
 }
 
-/** Caution text when the Sun is up or close to the target; null otherwise. */
+/** The Sun caution when the Sun is up or close to the target: { title, text }, or null. */
 export function solarCaution(f, targetName) {
   if (!f) return null;
   const sunAlt = deg(f, 'sun_alt_deg', 'sun_alt_rad');
@@ -59,6 +64,11 @@ export function solarCaution(f, targetName) {
   const near = typeof sep === 'number' && sep < 15;
   const up = typeof sunAlt === 'number' && sunAlt > -0.9;
   if (!isSun && !near && !up) return null;
-  const what = isSun ? 'The target is the Sun.' : near ? `The Sun is ${sep.toFixed(0)}° from the target.` : 'The Sun is above the horizon.';
-  return `⚠ Caution: ${what} Never look at or near the Sun through any telescope, binoculars or finder without a proper full-aperture solar filter fitted securely at the front, used per local rules and by trained volunteers. Cap the finder.`;
+  const title = isSun ? '⚠ Caution: the target is the Sun' : near ? `⚠ Caution: the Sun is only ${sep.toFixed(0)}° from the target` : '⚠ Caution: the Sun is up';
+  return {
+    title,
+    text: 'Sunlight through a telescope, binoculars or a finder blinds in an instant. Never look at or near the Sun '
+      + 'without a proper full-aperture solar filter, checked for damage and fitted securely over the front; observe the Sun '
+      + 'only as local rules and trained practice allow. Cap or remove the finder, and never leave a telescope near the Sun unattended.',
+  };
 }

@@ -81,18 +81,15 @@ export function renderPlan(app) {
     return;
   }
   const nodes = [];
-  for (const c of plan.cautions || []) nodes.push(el('p', 'caution', c.text || c.message || String(c.words || JSON.stringify(c))));
+  for (const c of plan.cautions || []) {
+    const p = el('p', 'caution');
+    p.append(el('strong', null, c.level === 'danger' ? '⚠ Sun: danger to eyes' : '⚠ Sun nearby'), c.text || String(c.message || ''));
+    nodes.push(p);
+  }
   const pending = [];
   (plan.cards || []).forEach((card) => nodes.push(renderCard(card, { pending })));
-  if (plan.cautions_card) {
-    const cc = el('article', 'card');
-    cc.append(el('h3', null, plan.cautions_card.title));
-    const ul = el('ul');
-    for (const i of plan.cautions_card.items) ul.append(el('li', null, i));
-    cc.append(ul);
-    nodes.push(cc);
-  }
   out.replaceChildren(...nodes);
+  fillSafety(plan);
   $('plan-print').hidden = false;
   // Paint the small views once the canvases are laid out.
   const spare = app.host.secondary('cards');
@@ -117,6 +114,14 @@ export function renderPlan(app) {
   });
 }
 
+/** The safety card (Plan tab, top) from the engine's cautions card of a plan. */
+export function fillSafety(plan) {
+  const card = plan && plan.cautions_card;
+  if (!card || !Array.isArray(card.items)) return;
+  $('safety').querySelector('summary').firstChild.textContent = `${card.title || 'Safety on the field'} `;
+  $('safety-items').replaceChildren(...card.items.map((i) => el('li', null, i)));
+}
+
 export function renderFind(app) {
   const out = $('find-out');
   let card;
@@ -129,7 +134,7 @@ export function renderFind(app) {
   const nodes = [el('p', null, card.pointing.sentence)];
   if (card.pointing.from_landmark) nodes.push(el('p', null, card.pointing.from_landmark.sentence));
   if (card.route) {
-    nodes.push(el('p', 'sub', `Star-hop with an 8×50 finder (${card.route.hop_count} hops; ${card.route.method}):`));
+    nodes.push(el('p', 'sub', `Star-hop with an 8×50 finder, ${card.route.hop_count} ${card.route.hop_count === 1 ? 'hop' : 'hops'}; "star 4" is where hop 4 lands:`));
     const ol = el('ol', 'hops');
     for (const leg of card.route.legs) ol.append(el('li', null, leg.sentence));
     nodes.push(ol);
@@ -140,14 +145,14 @@ export function renderFind(app) {
   const canvas = el('canvas', 'finderview');
   canvas.setAttribute('role', 'img');
   canvas.setAttribute('aria-label', 'The finder\'s view: the main telescope\'s field ringed, the star-hop route drawn');
-  const cap = el('p', 'sub', 'In the 8×50 finder (as it shows it): the ring is the telescope\'s field, the line the route.');
+  const cap = el('p', 'sub', 'In the 8×50 finder, as it shows it: the ring is the telescope\'s field, the line is the route.');
   nodes.push(canvas, cap);
   out.replaceChildren(...nodes);
   try {
     const spare = app.host.secondary('finder');
     app.host.call((e) => e.setScenario(toScenario(app.state)), spare);
     const f = app.host.call((e) => e.finderView(), spare);
-    cap.textContent += ` ${f.orientation}.`;
+    if (f.orientation) cap.textContent += ` The finder's view is ${f.orientation}.`;
     paint(app.host, spare, canvas, document.documentElement.dataset.night === '1', false);
   } catch (err) {
     if (err.engineDied) throw err;
@@ -159,8 +164,19 @@ export function initPlanUi(app) {
   $('plan-go').addEventListener('click', () => renderPlan(app));
   $('plan-print').addEventListener('click', () => {
     document.body.classList.add('print-cards');
+    // The safety card prints open, on its own page after the station cards.
+    app.safetyWasOpen = $('safety').open;
+    $('safety').open = true;
     window.print();
   });
-  window.addEventListener('afterprint', () => document.body.classList.remove('print-cards'));
+  window.addEventListener('afterprint', () => {
+    document.body.classList.remove('print-cards');
+    if (app.safetyWasOpen === false) $('safety').open = false;
+  });
   $('find-go').addEventListener('click', () => renderFind(app));
+  // The safety card is there before any plan is made: the engine's card from the "up tonight" plan.
+  $('tab-plan').addEventListener('click', () => {
+    if ($('safety-items').children.length) return;
+    try { fillSafety(app.tonightList().plan); } catch (e) { /* the event plan fills it too */ }
+  });
 }

@@ -51,11 +51,20 @@ export function targetLabel(t) {
   return typeof s === 'string' ? s : `RA ${s.ra_deg.toFixed(3)}°, Dec ${s.dec_deg.toFixed(3)}°`;
 }
 
-/** Every station's trains, one per eyepiece (or one if it has none), for the night plan. */
+/** Every station's trains, one per eyepiece (or one if it has none), for the night plan.
+ *  Each train is named after its eyepiece (and Barlow lens): the plan's cards say which to use. */
 export function stationSpecs(kit) {
+  const get = (id) => (id ? kit.items.find((i) => i.id === id) : null);
   return kit.stations.map((st) => ({
     name: st.name,
-    trains: (st.eyepieces.length ? st.eyepieces : [null]).map((_, i) => trainFor(kit, st, i)),
+    trains: (st.eyepieces.length ? st.eyepieces : [null]).map((epId, i) => {
+      const t = trainFor(kit, st, i);
+      const ep = get(epId);
+      const bar = get(st.barlow);
+      if (ep) t.name = `${ep.name} eyepiece${bar ? ` + ${bar.name}` : ''}`;
+      else t.name = (get(st.binocular) || get(st.camera) || get(st.telescope))?.name || st.name;
+      return t;
+    }),
   }));
 }
 

@@ -68,6 +68,7 @@ export function renderSite(app) {
   box.replaceChildren(...hours.map((h) => {
     const b = document.createElement('button');
     b.type = 'button'; b.className = 'btn small'; b.textContent = h;
+    b.setAttribute('aria-pressed', String(wall.time === h));
     b.addEventListener('click', () => {
       const now = utcToZoned(app.state.utc_ms, s.tz);
       const curH = parseInt(now.time, 10);
