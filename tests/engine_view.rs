@@ -154,6 +154,17 @@ fn finder_view_is_inverted_and_rings_the_main_field() {
         _ => None,
     });
     assert!((ring.unwrap().to_degrees() * 2.0 - main_field).abs() < 1e-9);
-    e.render(512, 512, 1.0).unwrap();
+    let r = e.render(512, 512, 1.0).unwrap();
     write_png("engine_finder_m13", 512, 512, e.pixels());
+    // The numbered stepping stones the find card's steps name ("star 2") are labelled in the
+    // picture, for every one of them that lies inside the finder's field.
+    let card = e.find_card(None).unwrap();
+    let route = card.route.as_ref().expect("a route to M 13");
+    let numbered: Vec<&str> = route.points.iter().skip(1).take(route.points.len().saturating_sub(2)).map(|p| p.label.as_str()).filter(|l| l.chars().all(|ch| ch.is_ascii_digit())).collect();
+    let shown: Vec<&str> = r.labels.iter().map(|l| l.text.as_str()).filter(|t| t.chars().all(|ch| ch.is_ascii_digit())).collect();
+    assert!(shown.iter().all(|t| numbered.contains(t)), "labels {shown:?} vs route {numbered:?}");
+    // The last stepping stone is one hop (less than a finder radius) from the target at the centre.
+    if let Some(last) = numbered.last() {
+        assert!(shown.contains(last), "the last stepping stone {last} is not labelled: {shown:?}");
+    }
 }

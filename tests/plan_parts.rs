@@ -165,3 +165,10 @@ fn showpieces_draw_the_queue_before_anonymous_objects() {
     // Never enough to lift an object over a better verdict class (10 points per class).
     assert!(famous < 10.0);
 }
+
+#[test]
+fn eyepiece_height_words_say_one_height_when_it_does_not_change() {
+    use nightfield::plan::cards::height_words;
+    assert_eq!(height_words(1.0712, 1.0738), "eyepiece 1.07 m above the ground");
+    assert_eq!(height_words(1.04, 1.07), "eyepiece 1.04–1.07 m above the ground");
+}

@@ -77,6 +77,15 @@ pub fn finder_scene(
             .filter_map(|p| crate::scene::gnomonic(center, frame.fixed(p.pos)))
             .collect();
         c.scene.overlays.push(crate::scene::Overlay::Path { points });
+        // Number the stepping stones as the steps name them ("star 4" = where hop 4 lands).
+        if scenario.view.labels {
+            let last = route.points.len().saturating_sub(1);
+            for (k, p) in route.points.iter().enumerate() {
+                if k > 0 && k < last && !p.label.is_empty() && p.label.chars().all(|ch| ch.is_ascii_digit()) {
+                    c.scene.add_label(frame.fixed(p.pos), &p.label, crate::scene::LabelKind::Star);
+                }
+            }
+        }
     }
     Ok(c)
 }

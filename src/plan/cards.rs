@@ -135,10 +135,7 @@ pub fn station_cards(p: &Prepared, targets: &[TargetPlan], stations: &[StationPl
                         verdict: sh.verdict,
                         verdict_words: vw,
                         orientation_note: tr.orientation_note.clone(),
-                        height_words: format!(
-                            "eyepiece {:.2}–{:.2} m above the ground",
-                            sh.eyepiece_height_min_m, sh.eyepiece_height_max_m
-                        ),
+                        height_words: height_words(sh.eyepiece_height_min_m, sh.eyepiece_height_max_m),
                         access_notes: sh.access_notes.clone(),
                         talking_points: talking_points(c, p.moon_distance_km),
                         events,
@@ -154,4 +151,15 @@ pub fn station_cards(p: &Prepared, targets: &[TargetPlan], stations: &[StationPl
             StationCard { station: sp.name.clone(), entries, cautions }
         })
         .collect()
+}
+
+/// "eyepiece 1.07 m above the ground", or a range when the height changes by a
+/// centimetre or more during the showing (to the centimetre a visitor can use).
+pub fn height_words(min_m: f64, max_m: f64) -> String {
+    let (lo, hi) = ((min_m * 100.0).round() / 100.0, (max_m * 100.0).round() / 100.0);
+    if (hi - lo).abs() < 0.005 {
+        format!("eyepiece {lo:.2} m above the ground")
+    } else {
+        format!("eyepiece {lo:.2}–{hi:.2} m above the ground")
+    }
 }
