@@ -274,10 +274,27 @@ pub fn plan_route_named(
         });
     }
     let mut last_err = None;
-    for w in corridor_widths(d, hop) {
+    let widths = corridor_widths(d, hop);
+    for (wi, &w) in widths.iter().enumerate() {
         match search(stars, start, target, hop, star_limit, d, w, rules) {
             Ok((nodes, path, cost)) => {
-                return Ok(describe(cost, stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
+                // Certify the route against stars outside the corridor: a route with fewer hops
+                // is at most (k − 1)·hop long, one with as many hops and a lower cost is shorter
+                // than this cost, and every landing point of a route of length L lies in the
+                // ellipse sep(p, start) + sep(p, target) ≤ L (triangle inequality). If that
+                // ellipse fits the corridor (sum ≤ d + 2w), nothing outside can beat it.
+                let hops = path.len().saturating_sub(1) as f64;
+                let need = ((hops - 1.0) * hop).max(cost);
+                if need <= d + 2.0 * w {
+                    return Ok(describe(cost, stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
+                }
+                if wi + 1 == widths.len() {
+                    // Widest corridor and still not certified: one search over exactly the ellipse
+                    // that holds every better route (wider only finds an equal or better one).
+                    let w_exact = ((need - d) / 2.0).min(core::f64::consts::PI);
+                    let (nodes, path, cost) = search(stars, start, target, hop, star_limit, d, w_exact, rules)?;
+                    return Ok(describe(cost, stars, &nodes, &path, start_label, target_label, finder, hop, star_limit, up, name_of));
+                }
             }
             Err(e) => last_err = Some(e),
         }
