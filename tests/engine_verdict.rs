@@ -36,7 +36,7 @@ fn drawn(e: &mut Engine, target: &str, train: &str, sky: f64) -> (f32, f64) {
     e.set_scenario(scenario(target, train, sky)).unwrap();
     let c = e.composed().unwrap();
     let d = c.scene.dsos.iter().min_by(|a, b| a.offset.length().total_cmp(&b.offset.length())).expect("the target is in the field");
-    (d.surf_br_mag_arcsec2, c.scene.sky.sky_mag_arcsec2)
+    (d.surf_br_mag_arcsec2, c.natural_sky_mag_arcsec2)
 }
 
 /// The planner's verdict for the same object, train and sky.
@@ -69,9 +69,11 @@ fn a_darker_sky_draws_the_same_object_with_more_contrast_as_the_verdict_rises() 
     assert!(view_strength(&a_dark) > view_strength(&a_town), "{a_town:?} {a_dark:?}");
     assert!(a_dark.verdict != Verdict::NotVisible);
     // Contrast over the sky (mag): larger under the darker sky.
-    assert!(sky_dark - mu_dark as f64 > sky_town - mu_town as f64, "town {mu_town}/{sky_town}, dark {mu_dark}/{sky_dark}");
+    let (drawn_town, drawn_dark) = (nightfield::engine::compose::display_sky_mu(sky_town), nightfield::engine::compose::display_sky_mu(sky_dark));
+    assert!(drawn_dark - mu_dark as f64 > drawn_town - mu_town as f64, "town {mu_town}/{drawn_town}, dark {mu_dark}/{drawn_dark}");
     // And exactly the mapping of the planner's strength.
-    assert!((mu_dark - drawn_mean_mu(view_strength(&a_dark), sky_dark)).abs() < 1e-4);
+    let drawn_sky = nightfield::engine::compose::display_sky_mu(sky_dark);
+    assert!((mu_dark - drawn_mean_mu(view_strength(&a_dark), drawn_sky)).abs() < 1e-4);
 }
 
 #[test]
@@ -99,4 +101,33 @@ fn mean_surface_brightness_from_magnitude_and_outline() {
     let mu = physical_mean_mu(e.catalogs().dso(id).unwrap()).unwrap();
     assert!((mu - 21.96).abs() < 0.02, "{mu}");
     let _ = &mut e;
+}
+
+fn scene_sky_and_stars(e: &mut Engine, time: &str) -> (f64, usize) {
+    let json = scenario("M45", REFRACTOR, 21.0);
+    let mut s = json;
+    s.time_utc = time.to_string();
+    e.set_scenario(s).unwrap();
+    let c = e.composed().unwrap();
+    assert!(c.scene.sky.sky_mag_arcsec2 >= c.natural_sky_mag_arcsec2 - 1e-9, "the drawn sky is never brighter than nature's");
+    (c.natural_sky_mag_arcsec2, c.scene.stars.len())
+}
+
+#[test]
+fn daylight_and_twilight_wash_out_the_view() {
+    // Sun altitudes at the demo site on 2026-12-12 (from memory of the season: sunset near
+    // 16:40 local = 15:40 UTC): noon sun up, civil dusk, full night.
+    let mut e = engine();
+    let hip = std::fs::read(format!("{}/catalog/stars_hip.nfs", env!("CARGO_MANIFEST_DIR"))).unwrap();
+    e.load_catalog("stars_hip.nfs", &hip).unwrap();
+    let (day_mu, day_stars) = scene_sky_and_stars(&mut e, "2026-12-12T11:00:00Z");
+    let (dusk_mu, dusk_stars) = scene_sky_and_stars(&mut e, "2026-12-12T16:05:00Z");
+    let (night_mu, night_stars) = scene_sky_and_stars(&mut e, "2026-12-12T22:00:00Z");
+    assert!(day_mu < 5.0, "daylight sky {day_mu}");
+    assert!(day_mu < dusk_mu && dusk_mu < night_mu, "{day_mu} {dusk_mu} {night_mu}");
+    assert!((night_mu - 21.0).abs() < 0.3, "night sky keeps the site's value (Moon aside): {night_mu}");
+    assert!(day_stars < dusk_stars && dusk_stars < night_stars, "stars {day_stars} {dusk_stars} {night_stars}");
+    assert!(e.figures().is_ok());
+    let figs = { e.set_scenario({ let mut s = scenario("M45", REFRACTOR, 21.0); s.time_utc = "2026-12-12T11:00:00Z".into(); s }).unwrap(); e.figures().unwrap() };
+    assert!(figs.sun_alt_deg.unwrap_or(-90.0) > 0.0);
 }

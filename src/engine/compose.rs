@@ -91,6 +91,9 @@ pub struct Composed {
     pub sun_separation_rad: Option<f64>,
     pub moon_alt_rad: Option<f64>,
     pub mag_limit: f32,
+    /// The sky as nature makes it at the target (dark sky, moonlight, twilight), V mag/arcsec²;
+    /// `scene.sky` holds the sky as drawn (see [`display_sky_mu`]).
+    pub natural_sky_mag_arcsec2: f64,
 }
 
 pub fn instant_of(s: &Scenario) -> Result<Instant, EngineError> {
@@ -208,6 +211,28 @@ fn place_of(star: &crate::sky::catalog::Star) -> CatalogPlace {
 const VIEW_EXTINCTION_K_MAG: f64 = 0.2;
 const VIEW_EYE_PUPIL_MM: f64 = 6.0;
 
+/// The sky as drawn: the eye adapts to a bright sky and a screen cannot show it, so
+/// below 19.5 mag/arcsec² (a bright suburb, moonlight, dusk, day) the drawn sky is
+/// compressed: 19.5 − 0.15·(19.5 − μ). A dark sky is drawn as it is; daylight (about
+/// 4 mag/arcsec²) becomes a pale sky on which the Moon and Venus still stand out, dusk
+/// a grey one. Our display choice; the verdicts and star limits use the natural sky.
+pub fn display_sky_mu(natural_mu: f64) -> f64 {
+    const KNEE: f64 = 19.5;
+    if !natural_mu.is_finite() || natural_mu >= KNEE {
+        return natural_mu;
+    }
+    KNEE - 0.15 * (KNEE - natural_mu)
+}
+
+/// Twilight or daylight at the site, nL: none once the Sun is 18° down (astronomical
+/// night), else the planner's rough twilight term (`plan::sky_brightness::twilight_nl`).
+pub fn twilight_nl_at(sun_alt_rad: f64) -> f64 {
+    if !(sun_alt_rad > (-18.0f64).to_radians()) {
+        return 0.0;
+    }
+    crate::plan::sky_brightness::twilight_nl(sun_alt_rad)
+}
+
 /// The catalogued mean surface brightness (OpenNGC, mostly B band), or, where the
 /// catalogue has none, the integrated magnitude spread over the outline:
 /// μ = m + 2.5 log10(area in arcsec²) (the definition of a mean surface brightness).
@@ -251,10 +276,19 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         accessories: vec![],
         mount: Default::default(),
     });
-    let sky_mu = s.view.sky_mag_arcsec2;
+    // The sky: the site's dark sky plus twilight or daylight from the Sun's altitude
+    // (the planner's rough twilight term; low-precision Sun, 0.01°, is plenty for a
+    // brightness), so a daytime or dusk view is drawn washed out and shallow, as it is.
+    let sun_lite = crate::plan::ephem_lite::sun_lite(t.utc_jd);
+    let site_trig = crate::plan::ephem_lite::SiteTrig::new(&site);
+    let sun_alt_lite = crate::plan::ephem_lite::horizontal(&sun_lite.equ, crate::plan::ephem_lite::lst_rad(t.utc_jd, &site_trig), &site_trig).alt_rad;
+    let twilight_nl = twilight_nl_at(sun_alt_lite);
+    let sky_mu = crate::scene::skylight::sky_with_moon(s.view.sky_mag_arcsec2, twilight_nl).0;
     // The naked-eye star limit under this sky (Crumey 2014, field factor 2 for a
     // casual observer) sets how deep the eyepiece reaches.
-    let cond = Conditions { naked_eye_limit_mag: crate::plan::visibility::naked_eye_limit_mag(sky_mu, 2.0), ..Conditions::default() };
+    // (In daylight the eye's limit falls below 0 mag; the optics figures take 0 as their floor.)
+    let naked_eye = crate::plan::visibility::naked_eye_limit_mag(sky_mu, 2.0).clamp(0.0, 8.5);
+    let cond = Conditions { naked_eye_limit_mag: naked_eye, ..Conditions::default() };
     let optics = figures_for(&train, &cond).map_err(|e| EngineError::Optics(e.to_string()))?;
 
     let horizontal = to_horizontal(aim.apparent, &site, &t);
@@ -355,16 +389,19 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
     if !driven {
         scene.set_sidereal_drift();
     }
-    scene.set_sky(sky_mu, moon_nl, optics.exit_pupil_mm, cond.eye_pupil_mm);
+    // Moonlight and twilight are both scattered sunlight: one tint (the dark part already holds the twilight).
+    scene.set_sky(s.view.sky_mag_arcsec2, moon_nl + twilight_nl, optics.exit_pupil_mm, cond.eye_pupil_mm);
     // Through an eyepiece, each deep-sky glow is drawn as strongly as the planner's
     // verdict for a visitor says (the card and the picture agree); cameras keep the
     // catalogued surface brightness.
+    let natural_sky_mu = scene.sky.sky_mag_arcsec2;
+    scene.sky.sky_mag_arcsec2 = display_sky_mu(natural_sky_mu);
     if let Ok(Some(option)) = crate::plan::wire::train_option(&train, "", "") {
         let ext_mag = VIEW_EXTINCTION_K_MAG * crate::sky::refraction::airmass(horizontal.alt_rad);
         for (i, d) in &drawn_dsos {
             let strength = match crate::plan::wire::candidate_from_dso_with(d, &glam::DMat3::IDENTITY) {
                 Some(c) => {
-                    let a = crate::plan::schedule::assess_candidate(&c, &option, VIEW_EYE_PUPIL_MM, moon_phase_deg, ext_mag, scene.sky.sky_mag_arcsec2);
+                    let a = crate::plan::schedule::assess_candidate(&c, &option, VIEW_EYE_PUPIL_MM, moon_phase_deg, ext_mag, natural_sky_mu);
                     crate::plan::visibility::view_strength(&a)
                 }
                 None => 0.0,
@@ -392,5 +429,6 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         sun_separation_rad,
         moon_alt_rad,
         mag_limit,
+        natural_sky_mag_arcsec2: natural_sky_mu,
     })
 }

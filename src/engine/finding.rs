@@ -26,7 +26,7 @@ pub fn card(c: &Composed, cats: &Catalogs, eph: Option<&Ephemeris>, stars: &[Hop
     if let Some(bright) = cats.tier(0) {
         landmarks.extend(guide::named_star_landmarks(bright, 2.5, &c.site, &c.instant));
     }
-    let nelm = crate::plan::visibility::naked_eye_limit_mag(c.scene.sky.sky_mag_arcsec2, 2.0);
+    let nelm = crate::plan::visibility::naked_eye_limit_mag(c.natural_sky_mag_arcsec2, 2.0);
     let name_of = |id: u32| sources::iau_name(id);
     let req = CardRequest {
         site: c.site,
