@@ -138,6 +138,7 @@ const app = {
     }
     if (!this.painted) {
       this.painted = true;
+      performance.mark('nf:first-paint');
       document.documentElement.dataset.ready = '1';
     }
   },
@@ -416,14 +417,22 @@ function initLinkBanner() {
   });
 }
 
+/** A tier's data files, downloaded side by side (bytes in the listed order). */
+function fetchTier(tier) {
+  return Promise.all((tier.catalogs || []).map(async (c) => {
+    const res = await fetch(new URL(`../${c.file}`, import.meta.url));
+    if (!res.ok) throw new Error(`The ${tier.label.toLowerCase()} data (${c.file}) could not be loaded (HTTP ${res.status}).`);
+    return new Uint8Array(await res.arrayBuffer());
+  }));
+}
+
 async function loadCatalogs(tiers) {
-  for (const tier of tiers.tiers) {
-    for (const c of tier.catalogs || []) {
-      const res = await fetch(new URL(`../${c.file}`, import.meta.url));
-      if (!res.ok) throw new Error(`The ${tier.label.toLowerCase()} data (${c.file}) could not be loaded (HTTP ${res.status}).`);
-      app.host.loadCatalog(c.name, new Uint8Array(await res.arrayBuffer()));
-    }
+  for (const [k, tier] of tiers.tiers.entries()) {
+    // A tier's files download together; they are handed to the engine in the listed order.
+    const files = await (k === 0 && app.firstTierFiles ? app.firstTierFiles : fetchTier(tier));
+    (tier.catalogs || []).forEach((c, i) => app.host.loadCatalog(c.name, files[i]));
     // Paint as soon as the first (bright) tier is in; deeper tiers repaint when they arrive.
+    performance.mark(`nf:tier-${tier.id}`);
     app.apply();
     document.documentElement.dataset.tiers = [document.documentElement.dataset.tiers, tier.id].filter(Boolean).join(' ');
   }
@@ -445,8 +454,13 @@ async function main() {
     },
   });
   try {
-    app.tiers = await loadTiers();
-    await app.host.start();
+    // The data list and the engine load side by side (no need to wait for one to ask for the other).
+    performance.mark('nf:wasm-start');
+    const tiersP = loadTiers();
+    // The first (bright) tier's files download while the engine instantiates.
+    app.firstTierFiles = tiersP.then((t) => fetchTier(t.tiers[0]));
+    app.firstTierFiles.catch(() => {}); // reported when loadCatalogs awaits it
+    [app.tiers] = await Promise.all([tiersP, app.host.start().then(() => performance.mark('nf:wasm-ready'))]);
   } catch (e) {
     app.showError(`The sky engine could not start: ${e.message}`);
     return;
