@@ -135,11 +135,14 @@ impl Default for Engine {
 }
 
 /// The benchmark workloads (src/bench.rs) run in wasm, timed with performance.now().
+/// Only in the `bench` build (`make bench`): the shipped wasm leaves them out.
+#[cfg(feature = "bench")]
 #[wasm_bindgen]
 pub struct Bench {
     files: Vec<(String, Vec<u8>)>,
 }
 
+#[cfg(feature = "bench")]
 #[wasm_bindgen]
 impl Bench {
     #[wasm_bindgen(constructor)]
@@ -160,6 +163,7 @@ impl Bench {
     }
 }
 
+#[cfg(feature = "bench")]
 impl Default for Bench {
     fn default() -> Self {
         Bench::new()
