@@ -14,6 +14,7 @@ pub mod scenario;
 pub mod scene;
 pub mod share;
 pub mod sky;
+pub mod sort;
 pub mod solar;
 pub mod time;
 

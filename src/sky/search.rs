@@ -168,7 +168,7 @@ fn suggest(key: &str, cats: &Catalogs) -> Vec<String> {
     for b in BODIES {
         consider(&(b[..1].to_uppercase() + &b[1..]));
     }
-    best.sort();
+    crate::sort::sort_by(&mut best, |a, b| a.cmp(b));
     best.into_iter().take(3).map(|(_, n)| n).collect()
 }
 

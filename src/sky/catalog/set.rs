@@ -214,7 +214,7 @@ impl Catalogs {
             .filter(|&i| overlaps(&d.cat.objects[i as usize]))
             .collect();
         out.extend(d.large.iter().copied().filter(|&i| overlaps(&d.cat.objects[i as usize])));
-        out.sort_unstable();
+        crate::sort::sort_u32(&mut out);
         out
     }
 
