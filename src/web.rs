@@ -116,10 +116,13 @@ impl Engine {
         to_js(&self.core.finder_view(spec).map_err(err)?)
     }
 
+    /// The link payload of the checked scenario. Its JSON text is written by the browser
+    /// (`JSON.stringify` of the same object `decodeLink` gives back), so the wasm needs no
+    /// second serializer; serde_json reads that text back exactly (shortest round-trip numbers).
     #[wasm_bindgen(js_name = encodeLink)]
     pub fn encode_link(&self, scenario: JsValue) -> Result<String, JsValue> {
-        let s = scenario_from(scenario)?;
-        self.core.encode_link(&s).map_err(err)
+        let s = scenario_from(scenario)?; // parsed and validated
+        Ok(crate::share::encode_json_bytes(json_text(&to_js(&s)?)?.as_bytes()))
     }
 
     #[wasm_bindgen(js_name = decodeLink)]
