@@ -98,7 +98,7 @@ impl Engine {
             None
         } else {
             let text = json_text(&finder)?;
-            Some(serde_json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
+            Some(crate::json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
         };
         to_js(&self.core.find_card(spec).map_err(err)?)
     }
@@ -111,7 +111,7 @@ impl Engine {
             None
         } else {
             let text = json_text(&finder)?;
-            Some(serde_json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
+            Some(crate::json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
         };
         to_js(&self.core.finder_view(spec).map_err(err)?)
     }
