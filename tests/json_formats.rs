@@ -314,3 +314,119 @@ fn scenarios_and_links_read_back() {
         assert_eq!(nightfield::share::decode::<Scenario>(&link).unwrap(), s, "{name}");
     }
 }
+
+// --- The JSON text reader (json::parse) against serde_json::from_str::<Value>. ---
+
+/// Equal values, numbers of the same kind (u64 / i64 / f64) and the same bits (-0.0 ≠ 0.0).
+fn identical(a: &Value, b: &Value) -> bool {
+    match (a, b) {
+        (Value::Number(x), Value::Number(y)) => {
+            (x.is_u64(), x.is_i64(), x.is_f64()) == (y.is_u64(), y.is_i64(), y.is_f64())
+                && x.as_u64() == y.as_u64()
+                && x.as_i64() == y.as_i64()
+                && x.as_f64().map(f64::to_bits) == y.as_f64().map(f64::to_bits)
+        }
+        (Value::Array(x), Value::Array(y)) => x.len() == y.len() && x.iter().zip(y).all(|(p, q)| identical(p, q)),
+        (Value::Object(x), Value::Object(y)) => x.len() == y.len() && x.iter().zip(y).all(|((k, p), (l, q))| k == l && identical(p, q)),
+        _ => a == b,
+    }
+}
+
+fn reads_alike(text: &str) -> bool {
+    let ours = json::parse(text);
+    let theirs = serde_json::from_str::<Value>(text);
+    match (&ours, &theirs) {
+        (Ok(a), Ok(b)) => assert!(identical(a, b), "{text:?}: ours {a:?}, serde_json {b:?}"),
+        (Err(_), Err(_)) => {}
+        _ => panic!("{text:?}: ours {ours:?}, serde_json {theirs:?}"),
+    }
+    theirs.is_ok()
+}
+
+#[test]
+fn json_reader_reads_as_serde_json() {
+    let numbers = [
+        "0", "-0", "1", "-1", "01", "-01", "00", "1.", "1.5", "-0.0", "0.0", "1e5", "1E+5", "1e-5", "1.5e-300", "-1.5e-300", "1e400", "-1e400", "1e-400",
+        "18446744073709551615", "18446744073709551616", "-9223372036854775808", "-9223372036854775809", "9223372036854775807", "9223372036854775808",
+        "-18446744073709551615", "-18446744073709551616", "0.1", "0.30000000000000004", "123456789012345678901234567890", "2.2250738585072011e-308",
+        "2.2250738585072014e-308", "4.9e-324", "5e-324", "2.4703282292062327e-324", "2.4703282292062328e-324", "1.7976931348623157e308",
+        "1.7976931348623158e308", "1.7976931348623159e308", "0e999999999999", "1e-99999999999999999999", "1e99999999999999999999", "-0e5", "0.000000000000000000000000000000001e33",
+        "9007199254740993", "9007199254740993.0", "179769313486231580793728971405303415079934132710037826936173778980444968292764750946649017977587207096330286416692887910946555547851940402630657488671505820681908902000708383676273854845817711531764475730270069855571366959622842914819860834936475292719074168444365510704342711559699508093042880177904174497791.0",
+        ".5", "+1", "1e", "1e+", "1e-", "-", "--1", "0x10", "Infinity", "-Infinity", "NaN", "1.e5", "1.5.5", "1ee5", "1e5.5", "- 1",
+    ];
+    for n in numbers {
+        reads_alike(n);
+        reads_alike(&format!("[{n}]"));
+        reads_alike(&format!("{{\"k\": {n}}}"));
+    }
+    let strings = [
+        r#""""#, r#""abc""#, r#""a\"b\\c\/d\be\ff\ng\rh\ti""#, r#""\u0041\u00e9\u20AC""#, r#""\ud83d\ude00""#, r#""\uD83D\uDE00x""#, r#""\uD800""#, r#""\uDC00""#,
+        r#""\uD800\u0041""#, r#""\uD800x""#, r#""\uD800\n""#, r#""\uD800\uD800\uDC00""#, r#""\u00""#, r#""\u00g0""#, r#""\x""#, r#""\"#, r#""abc"#, "\"a\tb\"", "\"a\u{1}b\"",
+        "\"a\u{7f}b\"", "\"héllo wörld – ✓\"", r#""\u0000""#, r#""\U0041""#,
+    ];
+    for s in strings {
+        reads_alike(s);
+        reads_alike(&format!("{{{s}: 1}}"));
+    }
+    let structures = [
+        "", " ", "\t\n\r ", "null", "true", "false", "nul", "tru", "nulll", "True", "[]", "{}", "[ ]", "{ }", "[1,]", "[,1]", "[1 2]", "[1,,2]", "{\"a\":1,}", "{\"a\" 1}",
+        "{1:2}", "{\"a\":}", "{\"a\":1 \"b\":2}", "{\"a\":1,\"a\":2}", "{\"b\":1,\"a\":[true,false,null]}", "1 2", "[] x", "{} {}", "[1]]", "[[1]", "{\"a\":{\"b\":{}}}",
+        " [ 1 , { \"x\" : \"y\" } ] ", "\u{feff}[]", "[1]\n", "\"x\"\u{0}", "[\"a\",\n\"b\"]",
+    ];
+    for s in structures {
+        reads_alike(s);
+    }
+    for depth in [1, 100, 126, 127, 128, 129, 200, 5000] {
+        reads_alike(&format!("{}{}", "[".repeat(depth), "]".repeat(depth)));
+        reads_alike(&format!("{}1{}", "{\"a\":".repeat(depth), "}".repeat(depth)));
+        reads_alike(&"[".repeat(depth));
+    }
+}
+
+#[test]
+fn json_reader_reads_real_texts_and_their_cuts_as_serde_json() {
+    let mut texts: Vec<String> = nightfield::scenario::comparison_scenarios().into_iter().map(|(_, t)| t).collect();
+    for t in trains() {
+        texts.push(serde_json::to_string(&t).unwrap());
+        texts.push(serde_json::to_string_pretty(&t).unwrap());
+    }
+    let mut n = 0;
+    for t in &texts {
+        assert!(reads_alike(t));
+        // Every prefix, and every single-character change at each position.
+        for cut in 0..t.len() {
+            if t.is_char_boundary(cut) {
+                reads_alike(&t[..cut]);
+                for c in ['"', '\\', ',', '}', ']', '1', '-', 'e', '.', ' ', 'x', '\u{1}'] {
+                    let mut m = t.clone();
+                    let end = (cut + 1..=t.len()).find(|&e| t.is_char_boundary(e)).unwrap_or(t.len());
+                    m.replace_range(cut..end, &c.to_string());
+                    reads_alike(&m);
+                    n += 1;
+                }
+            }
+        }
+    }
+    assert!(n > 10_000, "{n}");
+}
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig::with_cases(2000))]
+    #[test]
+    fn json_reader_agrees_on_any_text(s in "[\\[\\]{}\",:0-9eE.+\\-a-z\\\\ \\t\\nu]{0,40}") {
+        reads_alike(&s);
+    }
+
+    #[test]
+    fn json_reader_agrees_on_any_number(int in proptest::num::u64::ANY, frac in proptest::num::u64::ANY, exp in -400i32..400, form in 0u8..6) {
+        let text = match form {
+            0 => format!("{int}"),
+            1 => format!("-{int}"),
+            2 => format!("{int}.{frac}"),
+            3 => format!("-{int}.{frac}e{exp}"),
+            4 => format!("{}.{frac}E+{}", int % 10, exp.abs()),
+            _ => format!("{}", f64::from_bits(int)),
+        };
+        reads_alike(&text);
+    }
+}
