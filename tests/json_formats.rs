@@ -208,7 +208,20 @@ fn mutations(v: &Value) -> Vec<Value> {
                     out.push(edited(root, path, &|c| {
                         c.as_object_mut().unwrap().remove(k);
                     }));
-                    for repl in [json!(null), json!(7), json!(2.5), json!("x"), json!("telescope"), json!("class"), json!({}), json!([1.0, 2.0])] {
+                    for repl in [
+                        json!(null),
+                        json!(7),
+                        json!(2.5),
+                        json!("x"),
+                        json!("telescope"),
+                        json!("class"),
+                        json!({}),
+                        json!([1.0, 2.0]),
+                        json!({"mirror90": null}),
+                        json!({"erect": null, "x": 1}),
+                        json!({"left": 1}),
+                        json!(-3),
+                    ] {
                         out.push(edited(root, path, &|c| {
                             c.as_object_mut().unwrap().insert(k.clone(), repl.clone());
                         }));
@@ -360,18 +373,71 @@ fn json_reader_reads_as_serde_json() {
         reads_alike(&format!("{{\"k\": {n}}}"));
     }
     let strings = [
-        r#""""#, r#""abc""#, r#""a\"b\\c\/d\be\ff\ng\rh\ti""#, r#""\u0041\u00e9\u20AC""#, r#""\ud83d\ude00""#, r#""\uD83D\uDE00x""#, r#""\uD800""#, r#""\uDC00""#,
-        r#""\uD800\u0041""#, r#""\uD800x""#, r#""\uD800\n""#, r#""\uD800\uD800\uDC00""#, r#""\u00""#, r#""\u00g0""#, r#""\x""#, r#""\"#, r#""abc"#, "\"a\tb\"", "\"a\u{1}b\"",
-        "\"a\u{7f}b\"", "\"héllo wörld – ✓\"", r#""\u0000""#, r#""\U0041""#,
+        r#""""#,
+        r#""abc""#,
+        r#""a\"b\\c\/d\be\ff\ng\rh\ti""#,
+        r#""\u0041\u00e9\u20AC""#,
+        r#""\ud83d\ude00""#,
+        r#""\uD83D\uDE00x""#,
+        r#""\uD800""#,
+        r#""\uDC00""#,
+        r#""\uD800\u0041""#,
+        r#""\uD800x""#,
+        r#""\uD800\n""#,
+        r#""\uD800\uD800\uDC00""#,
+        r#""\u00""#,
+        r#""\u00g0""#,
+        r#""\x""#,
+        r#""\"#,
+        r#""abc"#,
+        "\"a\tb\"",
+        "\"a\u{1}b\"",
+        "\"a\u{7f}b\"",
+        "\"héllo wörld – ✓\"",
+        r#""\u0000""#,
+        r#""\U0041""#,
     ];
     for s in strings {
         reads_alike(s);
         reads_alike(&format!("{{{s}: 1}}"));
     }
     let structures = [
-        "", " ", "\t\n\r ", "null", "true", "false", "nul", "tru", "nulll", "True", "[]", "{}", "[ ]", "{ }", "[1,]", "[,1]", "[1 2]", "[1,,2]", "{\"a\":1,}", "{\"a\" 1}",
-        "{1:2}", "{\"a\":}", "{\"a\":1 \"b\":2}", "{\"a\":1,\"a\":2}", "{\"b\":1,\"a\":[true,false,null]}", "1 2", "[] x", "{} {}", "[1]]", "[[1]", "{\"a\":{\"b\":{}}}",
-        " [ 1 , { \"x\" : \"y\" } ] ", "\u{feff}[]", "[1]\n", "\"x\"\u{0}", "[\"a\",\n\"b\"]",
+        "",
+        " ",
+        "\t\n\r ",
+        "null",
+        "true",
+        "false",
+        "nul",
+        "tru",
+        "nulll",
+        "True",
+        "[]",
+        "{}",
+        "[ ]",
+        "{ }",
+        "[1,]",
+        "[,1]",
+        "[1 2]",
+        "[1,,2]",
+        "{\"a\":1,}",
+        "{\"a\" 1}",
+        "{1:2}",
+        "{\"a\":}",
+        "{\"a\":1 \"b\":2}",
+        "{\"a\":1,\"a\":2}",
+        "{\"b\":1,\"a\":[true,false,null]}",
+        "1 2",
+        "[] x",
+        "{} {}",
+        "[1]]",
+        "[[1]",
+        "{\"a\":{\"b\":{}}}",
+        " [ 1 , { \"x\" : \"y\" } ] ",
+        "\u{feff}[]",
+        "[1]\n",
+        "\"x\"\u{0}",
+        "[\"a\",\n\"b\"]",
     ];
     for s in structures {
         reads_alike(s);
@@ -429,4 +495,126 @@ proptest::proptest! {
         };
         reads_alike(&text);
     }
+}
+
+// --- Unit-only enums (json::unit_variants!) against serde's derive. ---
+
+macro_rules! reference_unit_enum {
+    ($reference:ident, $rename:literal, [$($variant:ident),*]) => {
+        #[derive(Serialize, Deserialize)]
+        #[serde(rename_all = $rename)]
+        enum $reference { $($variant),* }
+    };
+}
+reference_unit_enum!(RefPort, "snake_case", [Left, Right]);
+reference_unit_enum!(RefDiagonalKind, "snake_case", [None, Mirror90, Prism90, ErectingRoof45, ErectingRoof90]);
+reference_unit_enum!(RefFilterKind, "snake_case", [Neutral, NebulaBandPass, Solar, Colour]);
+reference_unit_enum!(RefRowOrder, "snake_case", [TopDown, BottomUp]);
+reference_unit_enum!(RefPierSide, "snake_case", [West, East]);
+reference_unit_enum!(RefPrismKind, "snake_case", [Erect, Mirror]);
+reference_unit_enum!(RefSkyClass, "kebab-case", [RemoteWilderness, DarkCountryside, Countryside, VillageEdge, Suburb, BrightSuburb, Town, CityCentre]);
+#[derive(Serialize, Deserialize)]
+enum RefBarrel {
+    #[serde(rename = "1.25in")]
+    In125,
+    #[serde(rename = "2in")]
+    In2,
+}
+
+fn unit_enum_alike<New: serde::de::DeserializeOwned + Serialize, Old: serde::de::DeserializeOwned + Serialize>(all: &[New]) {
+    let mut inputs =
+        vec![json!("x"), json!(""), json!(null), json!(1), json!(0), json!(true), json!([]), json!({}), json!({"a": null, "b": null}), json!({"x": null})];
+    for v in all {
+        let name = serde_json::to_value(v).unwrap();
+        // Both ways: the name `Serialize` writes reads back to the same variant.
+        assert_eq!(serde_json::to_value(json::from_value::<New>(name.clone()).unwrap()).unwrap(), name);
+        let n = name.as_str().unwrap().to_string();
+        inputs.extend([
+            name.clone(),
+            json!(n.to_uppercase()),
+            json!({ n.clone(): null }),
+            json!({ n.clone(): 1 }),
+            json!({ n.clone(): null, "y": null }),
+            json!([n]),
+        ]);
+    }
+    for i in inputs {
+        same::<New, Old>(&i);
+    }
+}
+
+#[test]
+fn unit_enums_read_as_serde_derive_read_them() {
+    unit_enum_alike::<Port, RefPort>(&[Port::Left, Port::Right]);
+    unit_enum_alike::<DiagonalKind, RefDiagonalKind>(&[
+        DiagonalKind::None,
+        DiagonalKind::Mirror90,
+        DiagonalKind::Prism90,
+        DiagonalKind::ErectingRoof45,
+        DiagonalKind::ErectingRoof90,
+    ]);
+    unit_enum_alike::<FilterKind, RefFilterKind>(&[FilterKind::Neutral, FilterKind::NebulaBandPass, FilterKind::Solar, FilterKind::Colour]);
+    unit_enum_alike::<Barrel, RefBarrel>(&[Barrel::In125, Barrel::In2]);
+    unit_enum_alike::<RowOrder, RefRowOrder>(&[RowOrder::TopDown, RowOrder::BottomUp]);
+    unit_enum_alike::<PierSide, RefPierSide>(&[PierSide::West, PierSide::East]);
+    unit_enum_alike::<PrismKind, RefPrismKind>(&[PrismKind::Erect, PrismKind::Mirror]);
+    unit_enum_alike::<SkyClass, RefSkyClass>(&SkyClass::ALL);
+}
+
+// --- Structs written as arrays (serde reads their fields in order; json::positional). ---
+
+/// Every prefix of `full` (and one element too many), and each element replaced by another type.
+fn positional_variants(full: Value) -> Vec<Value> {
+    let a = full.as_array().unwrap().clone();
+    let mut out = Vec::new();
+    for n in 0..=a.len() {
+        out.push(Value::Array(a[..n].to_vec()));
+    }
+    let mut longer = a.clone();
+    longer.push(json!(0));
+    out.push(Value::Array(longer));
+    for i in 0..a.len() {
+        for repl in [json!(null), json!("x"), json!(1), json!([]), json!({})] {
+            let mut m = a.clone();
+            m[i] = repl;
+            out.push(Value::Array(m));
+        }
+    }
+    out
+}
+
+fn positional_alike<T: serde::de::DeserializeOwned + Serialize>(full: Value) -> usize {
+    positional_variants(full).iter().map(|v| same::<T, T>(v) as usize).sum()
+}
+
+#[test]
+fn structs_written_as_arrays_read_as_serde_json_reads_them() {
+    use nightfield::plan::input::{AzSector, HorizonMask, Obstruction};
+    use nightfield::scenario::{SiteSpec, ViewSpec};
+    let mut accepted = 0;
+    accepted += positional_alike::<SiteSpec>(json!(["Field", 47.0, 8.3, 560, "Europe/Zurich", "19:00", "23:00"]));
+    accepted += positional_alike::<ViewSpec>(json!([true, false, true, false, 21.0, [1.5, -2.0], 30]));
+    accepted += positional_alike::<HorizonMask>(json!([10.0, [[0, 90, 25.0], {"az_from_deg": 270, "az_to_deg": 300, "alt_deg": 15}]]));
+    accepted += positional_alike::<Obstruction>(json!([0, 90, 25.0]));
+    accepted += positional_alike::<AzSector>(json!([350, 20]));
+    accepted += positional_alike::<Eyepiece>(json!([25, 52, 21.2, 17, "2in", 0.9]));
+    accepted += positional_alike::<Telescope>(json!([{"type": "newtonian", "focuser_angle_deg": 30}, 200, 1200, 50, 0.92, 0.95]));
+    accepted += positional_alike::<FinderSpec>(json!([{"type": "right_angle", "prism": "erect"}, 50, 9, 5]));
+    let demo: Value = serde_json::from_str(nightfield::scenario::DEMO_SCENARIO_JSON).unwrap();
+    let fields = ["version", "site", "time_utc", "kit", "station", "eyepiece", "train", "stations", "target", "view"];
+    let scenario = Value::Array(fields.iter().map(|f| demo.get(*f).cloned().unwrap_or(json!(null))).collect());
+    accepted += positional_alike::<Scenario>(scenario);
+    assert!(accepted > 40, "{accepted}");
+}
+
+#[test]
+fn the_kit_is_carried_whole() {
+    let kit = json!({"schema": 2, "items": [{"id": "ep25", "f": 25.0, "afov": 52, "neg": -3, "big": 18446744073709551615u64, "tiny": 1e-300,
+        "name": "Plössl “25” ✓", "tags": [], "none": null, "ok": true}], "stations": [{"name": "A", "items": ["ep25"]}], "nested": [[[{}]]]});
+    let mut demo: Value = serde_json::from_str(nightfield::scenario::DEMO_SCENARIO_JSON).unwrap();
+    demo["kit"] = kit.clone();
+    let text = demo.to_string();
+    let s = Scenario::from_json(&text).unwrap();
+    assert!(identical(&s.kit, &kit));
+    assert!(identical(&serde_json::from_str::<Scenario>(&text).unwrap().kit, &s.kit));
 }

@@ -16,8 +16,8 @@ use glam::{DMat2, DVec2};
 use crate::json::{self, tagged};
 use serde::{Deserialize, Deserializer, Serialize};
 
-/// The prism or mirror in a right-angle finder.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+/// The prism or mirror in a right-angle finder. (`Deserialize`: `json::unit_variants!` below.)
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum PrismKind {
     /// Roof (Amici) prism: image erect and correct, as by eye.
@@ -41,6 +41,8 @@ pub enum FinderKind {
     /// Porro or roof prism binoculars: erect and correct.
     Binoculars,
 }
+
+json::unit_variants!(PrismKind { Erect = "erect", Mirror = "mirror" });
 
 impl<'de> Deserialize<'de> for FinderKind {
     fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {

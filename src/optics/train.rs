@@ -141,7 +141,7 @@ impl Design {
 
 /// Which side of the tube the Nasmyth beam leaves, seen from behind looking
 /// toward the sky.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Port {
     #[default]
@@ -209,7 +209,7 @@ impl Accessory {
     }
 }
 
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum DiagonalKind {
     /// No fold (the slot left empty); kept so a form can offer "none".
@@ -277,7 +277,7 @@ pub(crate) fn default_lens_transmission() -> f64 {
     0.96
 }
 
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum FilterKind {
     /// Neutral density or "Moon" filter.
@@ -296,7 +296,7 @@ pub struct Filter {
     pub transmission: f64,
 }
 
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 pub enum Barrel {
     #[default]
     #[serde(rename = "1.25in")]
@@ -341,7 +341,7 @@ pub(crate) fn default_eyepiece_transmission() -> f64 {
 }
 
 /// How an image file stores its rows.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum RowOrder {
     #[default]
@@ -375,7 +375,7 @@ pub struct Phone {
     pub rotation_deg: f64,
 }
 
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum PierSide {
     /// Tube on the west side of the pier (usual when pointing east).
@@ -506,3 +506,12 @@ impl<'de> Deserialize<'de> for Mount {
         })
     }
 }
+
+// The unit-only enums' `Deserialize` (one shared reader, see `json::unit_variant`), with
+// the names their `Serialize` derive writes.
+json::unit_variants!(Port { Left = "left", Right = "right" });
+json::unit_variants!(DiagonalKind { None = "none", Mirror90 = "mirror90", Prism90 = "prism90", ErectingRoof45 = "erecting_roof45", ErectingRoof90 = "erecting_roof90" });
+json::unit_variants!(FilterKind { Neutral = "neutral", NebulaBandPass = "nebula_band_pass", Solar = "solar", Colour = "colour" });
+json::unit_variants!(Barrel { In125 = "1.25in", In2 = "2in" });
+json::unit_variants!(RowOrder { TopDown = "top_down", BottomUp = "bottom_up" });
+json::unit_variants!(PierSide { West = "west", East = "east" });

@@ -7,7 +7,7 @@ use serde::{Deserialize, Deserializer, Serialize};
 
 /// Our own dark-sky scale. Zenith V brightness per class, mag/arcsec²: values
 /// from memory of commonly quoted sky-meter readings for such places (approximate).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum SkyClass {
     RemoteWilderness,
@@ -60,6 +60,18 @@ impl SkyClass {
         }
     }
 }
+
+// `Deserialize` by the names `Serialize` writes (one shared reader: `json::unit_variant`).
+json::unit_variants!(SkyClass {
+    RemoteWilderness = "remote-wilderness",
+    DarkCountryside = "dark-countryside",
+    Countryside = "countryside",
+    VillageEdge = "village-edge",
+    Suburb = "suburb",
+    BrightSuburb = "bright-suburb",
+    Town = "town",
+    CityCentre = "city-centre",
+});
 
 /// Zenith brightness as the user gives it. (`Deserialize` by hand: see `crate::json`.)
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
