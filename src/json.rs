@@ -473,7 +473,11 @@ fn positional(a: Vec<Value>, fields: &'static [&'static str]) -> Result<serde_js
     if a.len() > fields.len() {
         return Err(Error::invalid_length(a.len(), &"fewer elements in array"));
     }
-    Ok(fields.iter().map(|f| f.to_string()).zip(a).collect())
+    let mut m = serde_json::Map::new();
+    for (f, v) in fields.iter().zip(a) {
+        m.insert(f.to_string(), v); // one by one: `collect` would sort (another sort instantiation)
+    }
+    Ok(m)
 }
 
 struct SeqReader(std::vec::IntoIter<Value>);
