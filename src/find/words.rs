@@ -146,7 +146,7 @@ pub fn altitude_sentence(h: Horizontal) -> String {
 }
 
 /// Upper-cases the first letter (the sentences here start with an ASCII letter).
-fn capitalise(s: &mut String) {
+fn capitalise(s: &mut str) {
     if let Some(c) = s.get_mut(0..1) {
         c.make_ascii_uppercase();
     }
