@@ -23,12 +23,7 @@ setup-test:
 
 ## The wasm engine + JS glue into www/pkg/, and the catalog files into www/data/.
 wasm: setup-wasm data
-	@. .tools/wasm.env
-	echo "[wasm] building with $$WASM_HOW"
-	CARGO_TARGET_DIR=$$WASM_TARGET_DIR RUSTC_BOOTSTRAP=$$WASM_BOOTSTRAP RUSTC=$$WASM_RUSTC \
-	  $$WASM_CARGO build --quiet --release --lib --target wasm32-unknown-unknown $$WASM_FLAGS
-	.tools/bin/wasm-bindgen --target web --out-dir www/pkg $$WASM_TARGET_DIR/wasm32-unknown-unknown/release/nightfield.wasm
-	echo "[wasm] www/pkg/nightfield_bg.wasm: $$(stat -c %s www/pkg/nightfield_bg.wasm) bytes"
+	@scripts/build-wasm.sh www/pkg
 
 ## Catalog data files the page fetches (built files are committed under catalog/; copied, not committed, into www/catalog/).
 data:

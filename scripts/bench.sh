@@ -10,5 +10,7 @@ echo "[bench] native build with the wasm build's compiler ($WASM_RUSTC)"
 CARGO_TARGET_DIR="$WASM_TARGET_DIR-native" RUSTC="$WASM_RUSTC" RUSTC_BOOTSTRAP=$WASM_BOOTSTRAP \
   "$WASM_CARGO" build --quiet --release --bin bench
 native_json=$("$WASM_TARGET_DIR-native/release/bench" $QUICK catalog)
-wasm_json=$(node scripts/bench-wasm.mjs $QUICK)
+# The wasm side: the shipped build plus the `bench` feature (the Bench export), same flags.
+scripts/build-wasm.sh "$WASM_TARGET_DIR-bench/pkg" --bench
+wasm_json=$(NIGHTFIELD_PKG="$(cd "$WASM_TARGET_DIR-bench/pkg" && pwd)" node scripts/bench-wasm.mjs $QUICK)
 node scripts/bench-report.mjs "$native_json" "$wasm_json"

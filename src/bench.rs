@@ -30,7 +30,7 @@ fn median(v: &mut [f64]) -> f64 {
     if v.is_empty() {
         return f64::NAN;
     }
-    v.sort_by(|a, b| a.total_cmp(b));
+    crate::sort::sort_by(v, |a, b| a.total_cmp(b));
     v[v.len() / 2]
 }
 

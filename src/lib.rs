@@ -6,6 +6,7 @@
 pub mod bench;
 pub mod engine;
 pub mod find;
+pub mod json;
 pub mod optics;
 pub mod orient;
 pub mod plan;
@@ -14,6 +15,7 @@ pub mod scenario;
 pub mod scene;
 pub mod share;
 pub mod sky;
+pub mod sort;
 pub mod solar;
 pub mod time;
 

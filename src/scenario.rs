@@ -66,11 +66,32 @@ pub struct SiteSpec {
 }
 
 /// What to point at: a name the search resolves ("M42", "Vega", "Jupiter"), or a direction.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+/// (`Deserialize` by hand: see `crate::json`.)
+#[derive(Clone, Debug, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum TargetSpec {
     Name(String),
     Coordinates { ra_deg: f64, dec_deg: f64 },
+}
+
+impl<'de> Deserialize<'de> for TargetSpec {
+    /// Untagged, as serde's derive: a string is a name; an object the coordinates.
+    fn deserialize<D: serde::Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        #[derive(Deserialize)]
+        struct Coordinates {
+            ra_deg: f64,
+            dec_deg: f64,
+        }
+        let no_match = || serde::de::Error::custom("data did not match any variant of untagged enum TargetSpec");
+        match serde_json::Value::deserialize(d)? {
+            serde_json::Value::String(s) => Ok(TargetSpec::Name(s)),
+            v @ serde_json::Value::Object(_) => {
+                let c: Coordinates = crate::json::from_value(v).map_err(|_| no_match())?;
+                Ok(TargetSpec::Coordinates { ra_deg: c.ra_deg, dec_deg: c.dec_deg })
+            }
+            _ => Err(no_match()),
+        }
+    }
 }
 
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -202,19 +223,19 @@ pub fn parse_civil(field: &'static str, text: &str) -> Result<CivilTime, Scenari
 
 impl Scenario {
     /// Reads a scenario from JSON text, refusing newer formats with a clear message.
-    /// (One parse path, serde_json from text, keeps the wasm small.)
+    /// (One parse path, `crate::json`, keeps the wasm small.)
     pub fn from_json(text: &str) -> Result<Scenario, ScenarioError> {
-        #[derive(Deserialize)]
-        struct VersionOnly {
-            version: Option<serde_json::Number>,
-        }
-        let v: VersionOnly = serde_json::from_str(text).map_err(|e| ScenarioError::Json(e.to_string()))?;
-        if let Some(found) = v.version.as_ref().and_then(|n| n.as_u64()) {
+        Scenario::from_value(crate::json::parse(text).map_err(|e| ScenarioError::Json(e.to_string()))?)
+    }
+
+    /// As `from_json`, from parsed JSON.
+    pub fn from_value(v: serde_json::Value) -> Result<Scenario, ScenarioError> {
+        if let Some(found) = v.get("version").and_then(|n| n.as_u64()) {
             if found > SCENARIO_VERSION as u64 {
                 return Err(ScenarioError::FutureVersion { found: found.min(u32::MAX as u64) as u32, supported: SCENARIO_VERSION });
             }
         }
-        let s: Scenario = serde_json::from_str(text).map_err(|e| ScenarioError::Json(e.to_string()))?;
+        let s: Scenario = crate::json::from_value(v).map_err(|e| ScenarioError::Json(e.to_string()))?;
         s.validate()?;
         Ok(s)
     }

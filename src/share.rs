@@ -95,7 +95,8 @@ pub fn encode<T: Serialize>(value: &T) -> Result<String, ShareError> {
 /// Decode link text (a bare payload, `#s=...`, or a whole URL) into a serde value.
 pub fn decode<T: DeserializeOwned>(link: &str) -> Result<T, ShareError> {
     let json = decode_json_bytes(link)?;
-    serde_json::from_slice(&json).map_err(|e| ShareError::NotAScenario(e.to_string()))
+    let text = std::str::from_utf8(&json).map_err(|_| ShareError::NotAScenario("the link's contents are not text".into()))?;
+    crate::json::from_str(text).map_err(|e| ShareError::NotAScenario(e.to_string()))
 }
 
 /// Payload text for raw JSON bytes (used by `encode`; public for tests and tools).

@@ -98,7 +98,7 @@ impl Engine {
             None
         } else {
             let text = json_text(&finder)?;
-            Some(serde_json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
+            Some(crate::json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
         };
         to_js(&self.core.find_card(spec).map_err(err)?)
     }
@@ -111,15 +111,18 @@ impl Engine {
             None
         } else {
             let text = json_text(&finder)?;
-            Some(serde_json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
+            Some(crate::json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
         };
         to_js(&self.core.finder_view(spec).map_err(err)?)
     }
 
+    /// The link payload of the checked scenario. Its JSON text is written by the browser
+    /// (`JSON.stringify` of the same object `decodeLink` gives back), so the wasm needs no
+    /// second serializer; serde_json reads that text back exactly (shortest round-trip numbers).
     #[wasm_bindgen(js_name = encodeLink)]
     pub fn encode_link(&self, scenario: JsValue) -> Result<String, JsValue> {
-        let s = scenario_from(scenario)?;
-        self.core.encode_link(&s).map_err(err)
+        let s = scenario_from(scenario)?; // parsed and validated
+        Ok(crate::share::encode_json_bytes(json_text(&to_js(&s)?)?.as_bytes()))
     }
 
     #[wasm_bindgen(js_name = decodeLink)]
@@ -135,11 +138,14 @@ impl Default for Engine {
 }
 
 /// The benchmark workloads (src/bench.rs) run in wasm, timed with performance.now().
+/// Only in the `bench` build (`make bench`): the shipped wasm leaves them out.
+#[cfg(feature = "bench")]
 #[wasm_bindgen]
 pub struct Bench {
     files: Vec<(String, Vec<u8>)>,
 }
 
+#[cfg(feature = "bench")]
 #[wasm_bindgen]
 impl Bench {
     #[wasm_bindgen(constructor)]
@@ -160,6 +166,7 @@ impl Bench {
     }
 }
 
+#[cfg(feature = "bench")]
 impl Default for Bench {
     fn default() -> Self {
         Bench::new()

@@ -99,3 +99,23 @@ fn progressive_loading_reports_missing_files() {
     assert!(c.load("stars_hip", b"garbage").is_err());
     assert_eq!(c.loaded(), vec!["stars_bright"]);
 }
+
+#[test]
+fn names_fold_ascii_case_and_keep_other_letters_exactly() {
+    use nightfield::sky::names::normalize;
+    assert_eq!(normalize("Rigil KENTAURUS"), "rigilkentaurus");
+    assert_eq!(normalize("Barnard’s  Galaxy!"), "barnardsgalaxy"); // punctuation, any script, dropped
+    assert_eq!(normalize("ÉTOILE 5"), "Étoile5"); // non-ASCII letters compared as written
+    // Every shipped name is ASCII, so ASCII folding finds them whatever the case typed.
+    for (n, _) in nightfield::sky::names::all() {
+        assert!(n.is_ascii(), "{n}");
+    }
+    let c = all();
+    let common: Vec<&String> = (0..).map_while(|i| c.dso(i)).flat_map(|d| &d.common_names).collect();
+    assert!(common.len() > 100);
+    for n in common {
+        assert!(n.is_ascii(), "{n}");
+    }
+    assert_eq!(hip(&c, "vEgA"), 91262);
+    assert_eq!(dso_id(&c, "ngc 224"), dso_id(&c, "M31"));
+}

@@ -178,7 +178,7 @@ pub fn aim(
                 let st = crate::solar::topocentric::body_apparent(eph, body, t, site).map_err(|e| EngineError::Solar(e.to_string()))?;
                 Ok(Aim {
                     name: body_title(body).into(),
-                    kind: if body == BodyId::Moon || body == BodyId::Sun { body_title(body).to_lowercase() } else { "planet".into() },
+                    kind: if body == BodyId::Moon || body == BodyId::Sun { body_title(body).to_ascii_lowercase() } else { "planet".into() },
                     apparent: st.topocentric,
                     body: Some(body),
                     size_rad: (st.diameter_arcsec / 3600.0).to_radians(),

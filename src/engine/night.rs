@@ -43,16 +43,17 @@ impl PlanRequest {
     /// From JSON text: a request object, or a bare scenario (then the window is four
     /// hours from the scenario's time).
     pub fn from_json(text: &str) -> Result<PlanRequest, EngineError> {
-        #[derive(Deserialize)]
-        struct Probe {
-            scenario: Option<serde::de::IgnoredAny>,
+        let unread = |e: crate::json::Error| EngineError::Plan(format!("the plan request could not be read: {e}"));
+        let v = crate::json::parse(text).map_err(unread)?;
+        if !v.is_object() {
+            let kind = crate::json::kind_of(&v);
+            return Err(EngineError::Plan(format!("the plan request could not be read: invalid type: {kind}, expected an object")));
         }
-        let probe: Probe = serde_json::from_str(text).map_err(|e| EngineError::Plan(format!("the plan request could not be read: {e}")))?;
-        if probe.scenario.is_some() {
-            let req: PlanRequest = serde_json::from_str(text).map_err(|e| EngineError::Plan(format!("the plan request could not be read: {e}")))?;
+        if v.get("scenario").is_some_and(|s| !s.is_null()) {
+            let req: PlanRequest = crate::json::from_value(v).map_err(unread)?;
             Ok(req)
         } else {
-            let scenario = Scenario::from_json(text).map_err(EngineError::Scenario)?;
+            let scenario = Scenario::from_value(v).map_err(EngineError::Scenario)?;
             Ok(PlanRequest {
                 scenario,
                 start_utc: None,

@@ -13,10 +13,11 @@ use super::{check, FindError};
 use crate::optics::train::Train;
 use crate::orient::SkyToScreen;
 use glam::{DMat2, DVec2};
-use serde::{Deserialize, Serialize};
+use crate::json::{self, tagged};
+use serde::{Deserialize, Deserializer, Serialize};
 
-/// The prism or mirror in a right-angle finder.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+/// The prism or mirror in a right-angle finder. (`Deserialize`: `json::unit_variants!` below.)
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum PrismKind {
     /// Roof (Amici) prism: image erect and correct, as by eye.
@@ -26,8 +27,8 @@ pub enum PrismKind {
     Mirror,
 }
 
-/// The kind of finder.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+/// The kind of finder. (`Deserialize` by hand below: see `crate::json`.)
+#[derive(Clone, Debug, PartialEq, Serialize)]
 #[serde(tag = "type", rename_all = "snake_case")]
 pub enum FinderKind {
     /// Objective + eyepiece, no erecting optics: the view is turned 180°.
@@ -39,6 +40,30 @@ pub enum FinderKind {
     ReflexSight { ring_radii_deg: Vec<f64> },
     /// Porro or roof prism binoculars: erect and correct.
     Binoculars,
+}
+
+json::unit_variants!(PrismKind { Erect = "erect", Mirror = "mirror" });
+
+impl<'de> Deserialize<'de> for FinderKind {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        #[derive(Deserialize)]
+        struct RightAngle {
+            prism: PrismKind,
+        }
+        #[derive(Deserialize)]
+        struct ReflexSight {
+            ring_radii_deg: Vec<f64>,
+        }
+        tagged(d, "type", &["straight_through", "right_angle", "reflex_sight", "binoculars"], |name, v| {
+            Ok(match name {
+                "straight_through" => FinderKind::StraightThrough,
+                "right_angle" => FinderKind::RightAngle { prism: json::from_value::<RightAngle>(v)?.prism },
+                "reflex_sight" => FinderKind::ReflexSight { ring_radii_deg: json::from_value::<ReflexSight>(v)?.ring_radii_deg },
+                "binoculars" => FinderKind::Binoculars,
+                _ => return Err(json::unlisted(name)),
+            })
+        })
+    }
 }
 
 /// A finder as the user describes it. For a reflex sight, `aperture_mm` and

@@ -81,7 +81,7 @@ pub fn plan_route_indexed(
     let limit = (finder_limit_mag - rules.visibility_margin_mag) as f32;
     let mut ids = if limit.is_finite() { index.cone(centre, radius, limit) } else { Vec::new() };
     // The index returns no particular order; sort so ties break the same way everywhere.
-    ids.sort_unstable();
+    crate::sort::sort_u32(&mut ids);
     let mut subset = Vec::with_capacity(ids.len() + 1);
     subset.push(*s0);
     subset.extend(ids.iter().filter(|&&i| i as usize != start).filter_map(|&i| stars.get(i as usize).copied()));

@@ -145,10 +145,10 @@ pub fn altitude_sentence(h: Horizontal) -> String {
     s
 }
 
-fn capitalise(s: &mut String) {
-    if let Some(c) = s.get(0..1) {
-        let up = c.to_uppercase();
-        s.replace_range(0..1, &up);
+/// Upper-cases the first letter (the sentences here start with an ASCII letter).
+fn capitalise(s: &mut str) {
+    if let Some(c) = s.get_mut(0..1) {
+        c.make_ascii_uppercase();
     }
 }
 

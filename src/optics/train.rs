@@ -4,7 +4,8 @@
 //! trusted: `validate::validate` checks every number before any figure or
 //! orientation is computed.
 
-use serde::{Deserialize, Serialize};
+use crate::json::{self, tagged};
+use serde::{Deserialize, Deserializer, Serialize};
 
 /// One way of looking: an instrument, its accessories front to back, its mount.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -20,8 +21,8 @@ pub struct Train {
     pub mount: Mount,
 }
 
-/// What gathers the light.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+/// What gathers the light. (`Deserialize` by hand below: see `crate::json`.)
+#[derive(Clone, Debug, PartialEq, Serialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum Instrument {
     /// The naked eye: the 1× reference.
@@ -73,8 +74,8 @@ pub(crate) fn default_glass_transmission() -> f64 {
     0.95
 }
 
-/// The optical design, which fixes the folds of the light path.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+/// The optical design, which fixes the folds of the light path. (`Deserialize` below.)
+#[derive(Clone, Debug, PartialEq, Serialize)]
 #[serde(tag = "type", rename_all = "snake_case")]
 pub enum Design {
     /// Objective lens, eyepiece straight behind it.
@@ -140,7 +141,7 @@ impl Design {
 
 /// Which side of the tube the Nasmyth beam leaves, seen from behind looking
 /// toward the sky.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Port {
     #[default]
@@ -180,8 +181,8 @@ pub struct Finder {
     pub transmission: f64,
 }
 
-/// One item in the light path after the instrument's own optics.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+/// One item in the light path after the instrument's own optics. (`Deserialize` below.)
+#[derive(Clone, Debug, PartialEq, Serialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum Accessory {
     StarDiagonal(StarDiagonal),
@@ -208,7 +209,7 @@ impl Accessory {
     }
 }
 
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum DiagonalKind {
     /// No fold (the slot left empty); kept so a form can offer "none".
@@ -276,7 +277,7 @@ pub(crate) fn default_lens_transmission() -> f64 {
     0.96
 }
 
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum FilterKind {
     /// Neutral density or "Moon" filter.
@@ -295,7 +296,7 @@ pub struct Filter {
     pub transmission: f64,
 }
 
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 pub enum Barrel {
     #[default]
     #[serde(rename = "1.25in")]
@@ -340,7 +341,7 @@ pub(crate) fn default_eyepiece_transmission() -> f64 {
 }
 
 /// How an image file stores its rows.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum RowOrder {
     #[default]
@@ -374,7 +375,7 @@ pub struct Phone {
     pub rotation_deg: f64,
 }
 
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum PierSide {
     /// Tube on the west side of the pier (usual when pointing east).
@@ -384,7 +385,8 @@ pub enum PierSide {
     East,
 }
 
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+/// How the tube is carried. (`Deserialize` below.)
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum Mount {
     /// Alt-azimuth (including the rocker base of a Dobsonian).
@@ -423,3 +425,93 @@ impl Train {
         })
     }
 }
+
+// The tagged enums' `Deserialize`, by tag (see `crate::json`): the JSON of serde's derive
+// with the attributes above (tests/json_formats.rs compares the two).
+
+impl<'de> Deserialize<'de> for Instrument {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        tagged(d, "kind", &["naked_eye", "telescope", "binoculars", "finder"], |name, v| {
+            Ok(match name {
+                "naked_eye" => Instrument::NakedEye(json::from_value(v)?),
+                "telescope" => Instrument::Telescope(json::from_value(v)?),
+                "binoculars" => Instrument::Binoculars(json::from_value(v)?),
+                "finder" => Instrument::Finder(json::from_value(v)?),
+                _ => return Err(json::unlisted(name)),
+            })
+        })
+    }
+}
+
+impl<'de> Deserialize<'de> for Design {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        #[derive(Deserialize)]
+        struct Newtonian {
+            #[serde(default)]
+            focuser_angle_deg: f64,
+        }
+        #[derive(Deserialize)]
+        struct Nasmyth {
+            #[serde(default)]
+            port: Port,
+        }
+        const VARIANTS: &[&str] =
+            &["refractor", "newtonian", "classical_cassegrain", "schmidt_cassegrain", "maksutov_cassegrain", "prime_focus", "nasmyth", "coude"];
+        tagged(d, "type", VARIANTS, |name, v| {
+            Ok(match name {
+                "refractor" => Design::Refractor,
+                "newtonian" => Design::Newtonian { focuser_angle_deg: json::from_value::<Newtonian>(v)?.focuser_angle_deg },
+                "classical_cassegrain" => Design::ClassicalCassegrain,
+                "schmidt_cassegrain" => Design::SchmidtCassegrain,
+                "maksutov_cassegrain" => Design::MaksutovCassegrain,
+                "prime_focus" => Design::PrimeFocus,
+                "nasmyth" => Design::Nasmyth { port: json::from_value::<Nasmyth>(v)?.port },
+                "coude" => Design::Coude,
+                _ => return Err(json::unlisted(name)),
+            })
+        })
+    }
+}
+
+impl<'de> Deserialize<'de> for Accessory {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        tagged(d, "kind", &["star_diagonal", "barlow", "reducer", "filter", "eyepiece", "camera", "phone"], |name, v| {
+            Ok(match name {
+                "star_diagonal" => Accessory::StarDiagonal(json::from_value(v)?),
+                "barlow" => Accessory::Barlow(json::from_value(v)?),
+                "reducer" => Accessory::Reducer(json::from_value(v)?),
+                "filter" => Accessory::Filter(json::from_value(v)?),
+                "eyepiece" => Accessory::Eyepiece(json::from_value(v)?),
+                "camera" => Accessory::Camera(json::from_value(v)?),
+                "phone" => Accessory::Phone(json::from_value(v)?),
+                _ => return Err(json::unlisted(name)),
+            })
+        })
+    }
+}
+
+impl<'de> Deserialize<'de> for Mount {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        #[derive(Deserialize)]
+        struct Equatorial {
+            #[serde(default)]
+            pier_side: PierSide,
+        }
+        tagged(d, "kind", &["alt_az", "equatorial"], |name, v| {
+            Ok(match name {
+                "alt_az" => Mount::AltAz,
+                "equatorial" => Mount::Equatorial { pier_side: json::from_value::<Equatorial>(v)?.pier_side },
+                _ => return Err(json::unlisted(name)),
+            })
+        })
+    }
+}
+
+// The unit-only enums' `Deserialize` (one shared reader, see `json::unit_variant`), with
+// the names their `Serialize` derive writes.
+json::unit_variants!(Port { Left = "left", Right = "right" });
+json::unit_variants!(DiagonalKind { None = "none", Mirror90 = "mirror90", Prism90 = "prism90", ErectingRoof45 = "erecting_roof45", ErectingRoof90 = "erecting_roof90" });
+json::unit_variants!(FilterKind { Neutral = "neutral", NebulaBandPass = "nebula_band_pass", Solar = "solar", Colour = "colour" });
+json::unit_variants!(Barrel { In125 = "1.25in", In2 = "2in" });
+json::unit_variants!(RowOrder { TopDown = "top_down", BottomUp = "bottom_up" });
+json::unit_variants!(PierSide { West = "west", East = "east" });

@@ -202,7 +202,7 @@ impl Prepared {
             let kind = if rising { SkyEventKind::Moonrise } else { SkyEventKind::Moonset };
             sky_events.push(SkyEvent { kind, utc_jd: jd, local: local_hhmm(jd, off) });
         }
-        sky_events.sort_by(|a, b| a.utc_jd.total_cmp(&b.utc_jd));
+        crate::sort::sort_by(&mut sky_events, |a, b| a.utc_jd.total_cmp(&b.utc_jd));
         let mid = n / 2;
         let moon = MoonSummary {
             phase_angle_deg: self.moon_phase_angle_deg[mid],
@@ -311,7 +311,7 @@ impl Prepared {
                 timeline.push(TimelineEntry { utc_jd: ev.start_utc_jd, local: local_hhmm(ev.start_utc_jd, off), text: ev.text.clone(), station_index: None, target_index: ti });
             }
         }
-        timeline.sort_by(|a, b| a.utc_jd.total_cmp(&b.utc_jd).then(a.station_index.cmp(&b.station_index)));
+        crate::sort::sort_by(&mut timeline, |a, b| a.utc_jd.total_cmp(&b.utc_jd).then(a.station_index.cmp(&b.station_index)));
 
         let cautions = cautions::cautions(self, &targets, &stations);
         let cards = cards::station_cards(self, &targets, &stations, &cautions);
@@ -378,7 +378,7 @@ impl Prepared {
                     options.push((score, s, t));
                 }
             }
-            options.sort_by(|x, y| y.0.total_cmp(&x.0).then(x.1.cmp(&y.1)).then(x.2.cmp(&y.2)));
+            crate::sort::sort_by(&mut options, |x, y| y.0.total_cmp(&x.0).then(x.1.cmp(&y.1)).then(x.2.cmp(&y.2)));
             let mut station_done = vec![false; ns];
             let mut taken = vec![false; inp.targets.len()];
             for pass in 0..2 {

@@ -98,7 +98,7 @@ pub fn cautions(p: &Prepared, targets: &[TargetPlan], stations: &[StationPlan]) 
             });
         }
     }
-    out.sort_by_key(|c| core::cmp::Reverse(c.level));
+    crate::sort::sort_by(&mut out, |a, b| b.level.cmp(&a.level));
     out
 }
 

@@ -2,11 +2,12 @@
 //! value, darkened/brightened with air mass, plus moonlight (Krisciunas &
 //! Schaefer 1991, PASP 103, 1033) and a rough twilight term.
 
-use serde::{Deserialize, Serialize};
+use crate::json::{self, tagged};
+use serde::{Deserialize, Deserializer, Serialize};
 
 /// Our own dark-sky scale. Zenith V brightness per class, mag/arcsec²: values
 /// from memory of commonly quoted sky-meter readings for such places (approximate).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum SkyClass {
     RemoteWilderness,
@@ -60,12 +61,44 @@ impl SkyClass {
     }
 }
 
-/// Zenith brightness as the user gives it.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+// `Deserialize` by the names `Serialize` writes (one shared reader: `json::unit_variant`).
+json::unit_variants!(SkyClass {
+    RemoteWilderness = "remote-wilderness",
+    DarkCountryside = "dark-countryside",
+    Countryside = "countryside",
+    VillageEdge = "village-edge",
+    Suburb = "suburb",
+    BrightSuburb = "bright-suburb",
+    Town = "town",
+    CityCentre = "city-centre",
+});
+
+/// Zenith brightness as the user gives it. (`Deserialize` by hand: see `crate::json`.)
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 #[serde(rename_all = "kebab-case", tag = "by")]
 pub enum SkyBrightness {
     Measured { zenith_mu: f64 },
     Class { class: SkyClass },
+}
+
+impl<'de> Deserialize<'de> for SkyBrightness {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        #[derive(Deserialize)]
+        struct Measured {
+            zenith_mu: f64,
+        }
+        #[derive(Deserialize)]
+        struct Class {
+            class: SkyClass,
+        }
+        tagged(d, "by", &["measured", "class"], |name, v| {
+            Ok(match name {
+                "measured" => SkyBrightness::Measured { zenith_mu: json::from_value::<Measured>(v)?.zenith_mu },
+                "class" => SkyBrightness::Class { class: json::from_value::<Class>(v)?.class },
+                _ => return Err(json::unlisted(name)),
+            })
+        })
+    }
 }
 
 impl SkyBrightness {

@@ -97,7 +97,7 @@ impl SkyIndex {
         for t in 0..total as usize {
             let s = &mut order[start[t] as usize..start[t + 1] as usize];
             let m = &idx.mag;
-            s.sort_by(|&a, &b| m[a as usize].total_cmp(&m[b as usize]).then(a.cmp(&b)));
+            crate::sort::sort_indices(s, &|a, b| m[a as usize].total_cmp(&m[b as usize]).then(a.cmp(&b)));
         }
         idx.tile_start = start;
         idx.order = order;

@@ -12,9 +12,12 @@ pub fn all() -> impl Iterator<Item = (&'static str, u32)> {
     })
 }
 
-/// Lower-case letters and digits only: "Rigil Kentaurus" → "rigilkentaurus".
+/// Letters and digits only, ASCII letters in lower case: "Rigil Kentaurus" → "rigilkentaurus".
+/// Other letters are kept as they are (compared exactly): every name in the IAU list and
+/// OpenNGC's common names is ASCII, and full Unicode case folding would add about 30 KB
+/// of tables to the wasm.
 pub fn normalize(s: &str) -> String {
-    s.chars().filter(|c| c.is_alphanumeric()).flat_map(char::to_lowercase).collect()
+    s.chars().filter(|c| c.is_alphanumeric()).map(|c| c.to_ascii_lowercase()).collect()
 }
 
 /// HIP number of an IAU star name, tolerant of case, spaces and punctuation.

@@ -170,7 +170,7 @@ pub fn rise_transit_set(
             events.push(AltEvent { kind: k2, utc_jd: bisect(&f, te, ts[i + 1], fe), alt_rad: horizon_rad });
         }
     }
-    events.sort_by(|a, b| a.utc_jd.total_cmp(&b.utc_jd));
+    crate::sort::sort_by(&mut events, |a, b| a.utc_jd.total_cmp(&b.utc_jd));
     let crosses = events.iter().any(|e| matches!(e.kind, EventKind::Rise | EventKind::Set));
     let circumstance = if crosses {
         Circumstance::CrossesHorizon

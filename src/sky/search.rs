@@ -166,9 +166,9 @@ fn suggest(key: &str, cats: &Catalogs) -> Vec<String> {
         consider(n);
     }
     for b in BODIES {
-        consider(&(b[..1].to_uppercase() + &b[1..]));
+        consider(&(b[..1].to_ascii_uppercase() + &b[1..]));
     }
-    best.sort();
+    crate::sort::sort_by(&mut best, |a, b| a.cmp(b));
     best.into_iter().take(3).map(|(_, n)| n).collect()
 }
 

@@ -101,6 +101,6 @@ pub fn moon_events(eph: &Ephemeris, start_tt_jd: f64, end_tt_jd: f64) -> Result<
         prev = now;
         t0 = t1;
     }
-    out.sort_by(|x, y| x.tt_jd.total_cmp(&y.tt_jd));
+    crate::sort::sort_by(&mut out, |x, y| x.tt_jd.total_cmp(&y.tt_jd));
     Ok(out)
 }

@@ -67,8 +67,9 @@ pub fn split_star_id(id: u32) -> (usize, u32) {
 
 /// Normalized form of a catalogue identifier: lower-case prefix, number without leading
 /// zeros, lower-case suffix ("NGC0224" → "ngc224", "IC 434" → "ic434", "Mel022" → "mel22").
+/// ASCII case folding only, as `names::normalize`.
 pub fn normalize_id(s: &str) -> String {
-    let t: String = s.chars().filter(|c| c.is_alphanumeric()).flat_map(char::to_lowercase).collect();
+    let t = crate::sky::names::normalize(s);
     let start = t.find(|c: char| c.is_ascii_digit()).unwrap_or(t.len());
     let (pre, rest) = t.split_at(start);
     let end = rest.find(|c: char| !c.is_ascii_digit()).unwrap_or(rest.len());
@@ -214,7 +215,7 @@ impl Catalogs {
             .filter(|&i| overlaps(&d.cat.objects[i as usize]))
             .collect();
         out.extend(d.large.iter().copied().filter(|&i| overlaps(&d.cat.objects[i as usize])));
-        out.sort_unstable();
+        crate::sort::sort_u32(&mut out);
         out
     }
 
