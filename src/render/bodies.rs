@@ -60,7 +60,7 @@ impl Disc {
         let bl_px = t.dir_px(b.bright_limb_dir);
         let pr = (b.polar_ratio as f32).clamp(0.5, 1.0);
         let (bx, by) = (bl_px.0 * eq.0 + bl_px.1 * eq.1, (bl_px.0 * pole.0 + bl_px.1 * pole.1) / pr);
-        let n = libm::sqrtf(bx * bx + by * by).max(1e-9);
+        let n = super::raster::sqrt(bx * bx + by * by).max(1e-9);
         Disc { cx, cy, r, eq, pole, pr, bl: (bx / n, by / n), cos_i: libm::cos(b.phase_angle_rad) as f32 }
     }
 
@@ -76,7 +76,7 @@ impl Disc {
     fn lit(&self, a: f32, b: f32) -> f32 {
         let u = a * self.bl.0 + b * self.bl.1;
         let v = -a * self.bl.1 + b * self.bl.0;
-        let d = u + self.cos_i * libm::sqrtf((1.0 - v * v).max(0.0));
+        let d = u + self.cos_i * super::raster::sqrt((1.0 - v * v).max(0.0));
         (d * self.r / 1.5 + 0.5).clamp(0.0, 1.0)
     }
 }
@@ -119,7 +119,7 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
         let shade = |a: f32, bb: f32| -> [f32; 3] {
             // Colour of the globe at unit-disc point (a, bb), sky in front included.
             let rr = a * a + bb * bb;
-            let mu = libm::sqrtf((1.0 - rr).max(0.0));
+            let mu = super::raster::sqrt((1.0 - rr).max(0.0));
             let mut k = (1.0 - ld) + ld * mu;
             if b.look == BodyLook::Jupiter {
                 // The two dark equatorial belts (either side of the equator).
@@ -138,7 +138,7 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
                 for y in y0..y1 {
                     for x in x0..x1 {
                         let (a, bb) = disc.local(x as f32 + 0.5, y as f32 + 0.5);
-                        let rr = libm::sqrtf(a * a + bb * bb);
+                        let rr = super::raster::sqrt(a * a + bb * bb);
                         // Edge coverage from the distance to the limb in pixels.
                         let cov = ((1.0 - rr) * disc.r * disc.pr.min(1.0) + 0.5).clamp(0.0, 1.0);
                         if cov <= 0.0 {
@@ -161,7 +161,7 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
                     // Ring-plane radius (equatorial radii) from the screen
                     // point: the pole axis is foreshortened by sin B.
                     let pole_px = bb * disc.pr;
-                    let rho = libm::sqrtf(a * a + (pole_px / sb) * (pole_px / sb));
+                    let rho = super::raster::sqrt(a * a + (pole_px / sb) * (pole_px / sb));
                     let (ring_a, front) = (ring_opacity(rho), pole_px * sb < 0.0);
                     let on_globe = a * a + bb * bb < 1.0;
                     let mut c = under;
@@ -187,8 +187,8 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
                         let (pcx, pcy) = (x as f32 + 0.5, y as f32 + 0.5);
                         let (a, bb) = disc.local(pcx, pcy);
                         let pole_px = bb * disc.pr;
-                        let rho = libm::sqrtf(a * a + (pole_px / sb) * (pole_px / sb));
-                        let rg = libm::sqrtf(a * a + bb * bb);
+                        let rho = super::raster::sqrt(a * a + (pole_px / sb) * (pole_px / sb));
+                        let rg = super::raster::sqrt(a * a + bb * bb);
                         if rho - g_rho > RING_EDGES[4] && rg - g_globe > 1.0 {
                             continue;
                         }

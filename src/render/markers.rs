@@ -13,40 +13,119 @@ const EAST: [f32; 3] = [0.35, 0.75, 0.95];
 const ZENITH: [f32; 3] = [0.55, 0.90, 0.45];
 const DRIFT: [f32; 3] = [0.95, 0.80, 0.35];
 
+/// A circular field edge on screen: centre, radius and the rows' spans.
+/// Shading is exact where it matters and skipped where it cannot change a
+/// byte: pixels nearer the centre than `ri` get neither the dark nor the rim
+/// (both coverages ≤ 0), and pixels beyond `ro` are filled with the outside
+/// colour (its coverage is 1 and the rim's 0 there).
+pub(crate) struct CircleEdge {
+    cx: f32,
+    cy: f32,
+    r: f32,
+    ro: f32,
+    ri: f32,
+}
+
+/// Keeps the spans clear of pixels whose shading is not a no-op or a fill
+/// by more than any float rounding of the distances involved.
+const EDGE_MARGIN_PX: f32 = 1.0 / 16.0;
+
+impl CircleEdge {
+    pub fn new(radius_rad: f64, t: &ViewTransform, dpr: f32, pal: &Palette) -> CircleEdge {
+        let half_w = rim_half_width(dpr);
+        let r = (radius_rad * t.px_per_rad) as f32;
+        // Both coverages vanish for d ≤ −(half_w + 0.5); beyond d ≥ half_w + 0.5
+        // the rim's vanishes and the dark's is 1, which writes the outside
+        // colour's bytes whatever the pixel held, when `full_dark_is_fill`.
+        let reach = half_w + 0.5 + EDGE_MARGIN_PX;
+        let ro = if full_dark_is_fill(pal) { r + reach } else { r + half_w + 1.5 };
+        CircleEdge { cx: t.cx as f32, cy: t.cy as f32, r, ro, ri: (r - reach).max(0.0) }
+    }
+
+    /// Pixels [xl, xr) of row y lie within `ro` of the centre; `None`: none do.
+    #[inline]
+    pub fn span(&self, y: usize, w: usize) -> Option<(usize, usize)> {
+        let dy = y as f32 + 0.5 - self.cy;
+        if !(dy.abs() < self.ro) {
+            return None;
+        }
+        let ho = super::raster::sqrt(self.ro * self.ro - dy * dy);
+        Some((span_start(self.cx - ho), span_end(self.cx + ho, w)))
+    }
+}
+
+/// Half the rim's width, px.
+fn rim_half_width(dpr: f32) -> f32 {
+    0.75 * dpr
+}
+
+/// Whether blending any pixel fully (coverage 1) to the outside colour gives
+/// exactly the outside colour's bytes, channel by channel (checked over every
+/// byte value, once per palette).
+fn full_dark_is_fill(pal: &Palette) -> bool {
+    use std::sync::OnceLock;
+    static CHECK: [OnceLock<bool>; 2] = [OnceLock::new(), OnceLock::new()];
+    *CHECK[pal.night as usize].get_or_init(|| {
+        let out = pal.map(background::OUTSIDE);
+        let l = super::raster::luts();
+        (0..3).all(|k| {
+            let want = super::raster::enc(&l.l2s, out[k]);
+            l.s2l.iter().all(|&v| super::raster::enc(&l.l2s, v + (out[k] - v) * 1.0) == want)
+        })
+    })
+}
+
+/// Sky fill for the rows of a band: only the pixels the field mask does not
+/// overwrite with the outside colour afterwards (all of them for a polygon).
+pub(crate) fn fill_sky(cv: &mut Canvas, edge: Option<&CircleEdge>, rows: (usize, usize), sky8: [u8; 4]) {
+    let Some(e) = edge else {
+        cv.fill_rows(rows, sky8);
+        return;
+    };
+    for y in rows.0..rows.1.min(cv.h) {
+        if let Some((xl, xr)) = e.span(y, cv.w) {
+            cv.fill_span(y, xl, xr, sky8);
+        }
+    }
+}
+
 /// Darkens everything outside the field and draws its rim, anti-aliased.
 /// Row spans: pixels far from the edge are filled or skipped whole; only a
 /// band about the edge is shaded per pixel.
-pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, rows: (usize, usize)) {
+pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, rows: (usize, usize), edge: Option<&CircleEdge>) {
     let out = pal.map(background::OUTSIDE);
     let rim = pal.map(RIM);
     let out8 = super::raster::to_rgba8(out);
-    let half_w = 0.75 * dpr;
+    let half_w = rim_half_width(dpr);
     let band = half_w + 1.5;
     match &scene.field {
         FieldEdge::Circle { radius_rad } => {
-            let r = (radius_rad * t.px_per_rad) as f32;
-            let (cx, cy) = (t.cx as f32, t.cy as f32);
-            let (ro, ri) = (r + band, (r - band).max(0.0));
+            let own;
+            let e = match edge {
+                Some(e) => e,
+                None => {
+                    own = CircleEdge::new(*radius_rad, t, dpr, pal);
+                    &own
+                }
+            };
+            let (cx, cy, r, ri) = (e.cx, e.cy, e.r, e.ri);
             for y in rows.0..rows.1.min(cv.h) {
-                let dy = y as f32 + 0.5 - cy;
-                if dy.abs() >= ro {
+                let Some((xl, xr)) = e.span(y, cv.w) else {
                     cv.fill_span(y, 0, cv.w, out8);
                     continue;
-                }
-                let ho = libm::sqrtf(ro * ro - dy * dy);
-                let xl = span_start(cx - ho);
-                let xr = span_end(cx + ho, cv.w);
+                };
+                let dy = y as f32 + 0.5 - cy;
                 cv.fill_span(y, 0, xl, out8);
                 cv.fill_span(y, xr, cv.w, out8);
                 let (il, ir) = if dy.abs() < ri {
-                    let hi = libm::sqrtf(ri * ri - dy * dy);
+                    let hi = super::raster::sqrt(ri * ri - dy * dy);
                     (span_end(cx - hi, cv.w).max(xl), span_start(cx + hi).min(xr))
                 } else {
                     (xr, xr)
                 };
                 let shade = |cv: &mut Canvas, x: usize| {
                     let dx = x as f32 + 0.5 - cx;
-                    let d = libm::sqrtf(dx * dx + dy * dy) - r;
+                    let d = super::raster::sqrt(dx * dx + dy * dy) - r;
                     edge_pixel(cv, x, y, d, half_w, out, rim);
                 };
                 for x in xl..il.min(xr) {
@@ -89,19 +168,23 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
 
 #[inline]
 fn span_start(x: f32) -> usize {
-    (x - 0.5).ceil().max(0.0) as usize
+    // Float → integer casts saturate: below 0 (and NaN) give 0.
+    super::raster::ceil_f(x - 0.5) as usize
 }
 
 #[inline]
 fn span_end(x: f32, w: usize) -> usize {
-    (((x - 0.5).floor() + 1.0).max(0.0) as usize).min(w)
+    ((super::raster::floor_f(x - 0.5) + 1.0) as usize).min(w)
 }
 
-#[inline]
+/// The dark and the rim over one pixel at signed distance `d` from the edge.
+/// A coverage of 0 leaves the bytes as they are (the sRGB tables round-trip
+/// every byte), so both blends run without a branch.
+#[inline(always)]
 fn edge_pixel(cv: &mut Canvas, x: usize, y: usize, d: f32, half_w: f32, out: [f32; 3], rim: [f32; 3]) {
     let i = cv.idx(x, y);
-    cv.blend(i, out, (d + 0.5).clamp(0.0, 1.0));
-    cv.blend(i, rim, (half_w + 0.5 - d.abs()).clamp(0.0, 1.0));
+    cv.blend_any(i, out, (d + 0.5).clamp(0.0, 1.0));
+    cv.blend_any(i, rim, (half_w + 0.5 - d.abs()).clamp(0.0, 1.0));
 }
 
 /// For a convex polygon (pixel coords): the inside x-span on row `yc` and the
@@ -198,4 +281,29 @@ pub(crate) fn draw_markers(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dp
         });
     }
     labels
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// With the outside colour of both palettes, a full blend towards it gives
+    /// its bytes from any pixel, so the mask may fill past the rim instead of
+    /// shading (checked against a direct blend of every byte here too).
+    #[test]
+    fn full_dark_blend_is_a_fill_in_both_palettes() {
+        let l = super::super::raster::luts();
+        for night in [false, true] {
+            let pal = Palette { night };
+            assert!(full_dark_is_fill(&pal), "night {night}");
+            let out = pal.map(background::OUTSIDE);
+            let out8 = super::super::raster::to_rgba8(out);
+            for b in 0..=255u8 {
+                let mut px = [b, b, b, 255];
+                let mut cv = Canvas::new(1, 1, &mut px);
+                cv.blend(0, out, 1.0);
+                assert_eq!(px, out8, "night {night} byte {b}");
+            }
+        }
+    }
 }

@@ -11,6 +11,7 @@ pub mod background;
 pub mod bench;
 pub mod bodies;
 pub mod colour;
+mod lanes;
 pub mod markers;
 pub mod raster;
 pub mod shapes;
@@ -211,38 +212,110 @@ fn check(view: &ViewParams) -> Result<(), RenderError> {
 /// edge, the edge, markers.
 pub fn draw(scene: &Scene, view: &ViewParams, frame: &mut Frame) -> Result<Vec<Label>, RenderError> {
     check(view)?;
+    // Per-frame lists live in a reused scratch: fresh large allocations each
+    // frame cost page faults natively (the allocator hands big blocks back to
+    // the system). A nested call (none today) gets its own.
+    SCRATCH.with(|cell| match cell.try_borrow_mut() {
+        Ok(mut s) => draw_with(scene, view, frame, &mut s),
+        Err(_) => draw_with(scene, view, frame, &mut Scratch::default()),
+    })
+}
+
+/// Lists reused from frame to frame (see [`draw`]).
+#[derive(Default)]
+struct Scratch {
+    stars: Vec<PreparedStar>,
+    unsorted: Vec<PreparedStar>,
+    count: Vec<u32>,
+    order: Vec<u32>,
+    wx: Vec<f32>,
+    /// Look and colour of each scene star as last computed, with the inputs
+    /// they came from (see [`star_look_memo`]).
+    memo: Vec<StarMemo>,
+    memo_key: (u32, u32, bool),
+}
+
+#[derive(Clone, Copy)]
+struct StarMemo {
+    known: bool,
+    vmag_bits: u32,
+    bv_bits: u32,
+    look: stars::StarLook,
+    colour: [f32; 3],
+}
+
+/// A star's look and display colour: a pure function of its magnitude and
+/// B−V, the magnitude limit, the pixel ratio and the palette. Redrawing the
+/// same scene (pan, zoom) finds them in the memo when every input matches
+/// bit for bit; anything else recomputes them.
+#[inline]
+fn star_look_memo(memo: &mut [StarMemo], i: usize, s: &crate::scene::SceneStar, mag_limit: f32, dpr: f32, pal: &Palette) -> (stars::StarLook, [f32; 3]) {
+    let (vb, bb) = (s.vmag.to_bits(), s.bv.to_bits());
+    if let Some(m) = memo.get(i) {
+        if m.known && m.vmag_bits == vb && m.bv_bits == bb {
+            return (m.look, m.colour);
+        }
+    }
+    let look = stars::star_look(s.vmag, mag_limit, dpr);
+    let colour = pal.map(colour::star_colour(s.bv));
+    if let Some(m) = memo.get_mut(i) {
+        *m = StarMemo { known: true, vmag_bits: vb, bv_bits: bb, look, colour };
+    }
+    (look, colour)
+}
+
+thread_local! {
+    static SCRATCH: std::cell::RefCell<Scratch> = std::cell::RefCell::new(Scratch::default());
+}
+
+fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scratch) -> Result<Vec<Label>, RenderError> {
     frame.resize(view.width_px, view.height_px);
     let pal = Palette { night: view.night_mode };
     let t = view_transform(scene, view);
     let mut cv = raster::Canvas::new(view.width_px as usize, view.height_px as usize, &mut frame.rgba);
     let sky8 = raster::to_rgba8(pal.map(background::sky_colour(&scene.sky)));
-    let stars = prepare_stars(scene, &t, view.dpr, &pal, cv.h);
-    // Bands of rows, each finished while it sits in cache: sky, glows, stars,
-    // bodies, the dark outside the field and its rim.
-    let mut wx = Vec::with_capacity(256);
+    prepare_stars(scene, &t, view.dpr, &pal, cv.h, sc);
+    let Scratch { stars, wx, .. } = sc;
     let small = stars::SmallPsf::new(view.dpr);
-    let mut next = 0usize;
-    let mut active: Vec<u32> = Vec::new();
-    let mut y = 0usize;
-    while y < cv.h {
-        let rows = (y, (y + BAND_ROWS).min(cv.h));
-        cv.fill_rows(rows, sky8);
-        shapes::draw_dsos(&mut cv, scene, &t, &pal, rows);
-        while next < stars.len() && (stars[next].y0 as usize) < rows.1 {
-            active.push(next as u32);
-            next += 1;
+    let edge = match &scene.field {
+        FieldEdge::Circle { radius_rad } => Some(markers::CircleEdge::new(*radius_rad, &t, view.dpr, &pal)),
+        FieldEdge::Polygon { .. } => None,
+    };
+    // Bands of rows, each finished while it sits in cache. Per pixel the
+    // order is: sky, deep-sky glows, stars (in `stars` order), bodies, the
+    // dark outside the field and its rim. Bands are readied (sky, glows) a
+    // little ahead, so that each star is drawn whole, once, when its first
+    // band comes up; it is clipped to the bands its rows [y0, y1) fall in.
+    let h = cv.h;
+    let band_start = |y: usize| y / BAND_ROWS * BAND_ROWS;
+    let band_end = |y: usize| (y.div_ceil(BAND_ROWS) * BAND_ROWS).min(h);
+    let mut ready = 0usize;
+    let mut ready_to = |cv: &mut raster::Canvas, to: usize| {
+        while ready < to {
+            let rows = (ready, (ready + BAND_ROWS).min(h));
+            markers::fill_sky(cv, edge.as_ref(), rows, sky8);
+            shapes::draw_dsos(cv, scene, &t, &pal, rows);
+            ready = rows.1;
         }
-        active.retain(|&k| stars[k as usize].y1 as usize > rows.0);
-        for &k in &active {
-            let s = &stars[k as usize];
+    };
+    let mut next = 0usize;
+    let mut y = 0usize;
+    while y < h {
+        let rows = (y, (y + BAND_ROWS).min(h));
+        ready_to(&mut cv, rows.1);
+        while next < stars.len() && (stars[next].y0 as usize) < rows.1 {
+            let s = &stars[next];
+            next += 1;
+            let clip = (band_start(s.y0 as usize), band_end(s.y1 as usize));
+            ready_to(&mut cv, clip.1);
             if small.fits(s.look) {
-                stars::stamp_small(&mut cv, s.x, s.y, s.look.flux, s.colour, rows, &small);
+                stars::stamp_small(&mut cv, s.x, s.y, s.look.flux, s.colour, clip, &small);
             } else {
-                stars::stamp(&mut cv, s.x, s.y, s.look, s.colour, rows, &mut wx);
+                stars::stamp(&mut cv, s.x, s.y, s.look, s.colour, clip, wx);
             }
         }
         bodies::draw_bodies(&mut cv, scene, &t, view.dpr, &pal, rows);
-        markers::field_mask(&mut cv, scene, &t, view.dpr, &pal, rows);
+        markers::field_mask(&mut cv, scene, &t, view.dpr, &pal, rows, edge.as_ref());
         y = rows.1;
     }
     shapes::draw_outlines(&mut cv, scene, &t, view.dpr, &pal);
@@ -289,6 +362,7 @@ fn draw_overlays(cv: &mut raster::Canvas, scene: &Scene, t: &ViewTransform, dpr:
 /// Rows per band: 16 rows of a 1024-px frame are 64 KB, well inside L2.
 const BAND_ROWS: usize = 16;
 
+#[derive(Clone, Copy)]
 struct PreparedStar {
     x: f32,
     y: f32,
@@ -300,44 +374,57 @@ struct PreparedStar {
 }
 
 /// Stars in view with their pixel position and look, ordered by first row
-/// (a counting sort, stable, so the order is deterministic).
-fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, h: usize) -> Vec<PreparedStar> {
+/// (a counting sort, stable, so the order is deterministic), into `sc.stars`.
+fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, h: usize, sc: &mut Scratch) {
     // Cull against the field: nothing outside it survives the mask.
     let reach = scene.field_reach_rad() * t.px_per_rad + 40.0 * dpr as f64;
     let reach2 = (reach * reach) as f32;
     let (cx, cy) = (t.cx as f32, t.cy as f32);
-    let mut count = vec![0u32; h + 1];
-    let mut tmp = Vec::with_capacity(scene.stars.len());
-    for s in &scene.stars {
+    let count = &mut sc.count;
+    count.clear();
+    count.resize(h + 1, 0);
+    let key = (scene.mag_limit.to_bits(), dpr.to_bits(), pal.night);
+    if sc.memo_key != key || sc.memo.len() != scene.stars.len() {
+        sc.memo_key = key;
+        sc.memo.clear();
+        let stale = StarMemo { known: false, vmag_bits: 0, bv_bits: 0, look: stars::StarLook { flux: 0.0, sigma_px: 0.0 }, colour: [0.0; 3] };
+        sc.memo.resize(scene.stars.len(), stale);
+    }
+    let memo = &mut sc.memo;
+    let tmp = &mut sc.unsorted;
+    tmp.clear();
+    let hf = h as f32;
+    for (i, s) in scene.stars.iter().enumerate() {
         let (x, y) = t.to_px(s.offset);
         let (dx, dy) = (x - cx, y - cy);
         if !(dx * dx + dy * dy <= reach2) {
             continue;
         }
-        let look = stars::star_look(s.vmag, scene.mag_limit, dpr);
+        let (look, colour) = star_look_memo(memo, i, s, scene.mag_limit, dpr, pal);
         let r = stars::stamp_radius_px(look);
-        if y + r < 0.0 || y - r >= h as f32 {
+        if y + r < 0.0 || y - r >= hf {
             continue;
         }
-        let y0 = ((y - r).floor().max(0.0) as usize).min(h - 1);
-        let y1 = ((y + r).floor() + 1.0).clamp(1.0, h as f32) as u32;
+        // y is within the field's reach of the centre, so the integer floors fit in i32.
+        let y0 = (raster::floor_i32(y - r).max(0) as usize).min(h - 1);
+        let y1 = (raster::floor_i32(y + r) + 1).clamp(1, h as i32) as u32;
         count[y0 + 1] += 1;
-        tmp.push(PreparedStar { x, y, look, colour: pal.map(colour::star_colour(s.bv)), y0: y0 as u32, y1 });
+        tmp.push(PreparedStar { x, y, look, colour, y0: y0 as u32, y1 });
     }
     for i in 0..h {
         count[i + 1] += count[i];
     }
-    let mut slot = vec![0u32; tmp.len()];
+    // order[slot] = index in `tmp`, then one pass copies the stars in order.
+    let order = &mut sc.order;
+    order.clear();
+    order.resize(tmp.len(), 0);
     for (k, p) in tmp.iter().enumerate() {
         let c = &mut count[p.y0 as usize];
-        slot[k] = *c;
+        order[*c as usize] = k as u32;
         *c += 1;
     }
-    let mut out: Vec<Option<PreparedStar>> = (0..tmp.len()).map(|_| None).collect();
-    for (k, p) in tmp.into_iter().enumerate() {
-        out[slot[k] as usize] = Some(p);
-    }
-    out.into_iter().flatten().collect()
+    sc.stars.clear();
+    sc.stars.extend(order.iter().map(|&k| tmp[k as usize]));
 }
 
 fn object_labels(scene: &Scene, t: &ViewTransform, view: &ViewParams) -> Vec<Label> {
@@ -352,4 +439,52 @@ fn object_labels(scene: &Scene, t: &ViewTransform, view: &ViewParams) -> Vec<Lab
         })
         .filter(|l| l.x_px >= 0.0 && l.y_px >= 0.0 && l.x_px < view.width_px as f32 && l.y_px < view.height_px as f32)
         .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A frame drawn on a fresh thread (empty scratch and memo).
+    fn fresh(scene: &Scene, view: &ViewParams) -> Frame {
+        let (scene, view) = (scene.clone(), *view);
+        std::thread::spawn(move || {
+            let mut f = Frame::default();
+            draw(&scene, &view, &mut f).map(|_| f).unwrap_or_default()
+        })
+        .join()
+        .unwrap_or_default()
+    }
+
+    /// Redrawing after the scene's stars changed (magnitude, colour, count,
+    /// palette, pixel ratio) gives the frame a first draw gives: the memo of
+    /// looks never serves a stale entry.
+    #[test]
+    fn star_memo_follows_every_input() {
+        let mut scene = bench::rich_field_scene();
+        scene.stars.truncate(800);
+        let mut view = ViewParams { width_px: 300, height_px: 300, ..ViewParams::default() };
+        let mut f = Frame::default();
+        let mut check = |scene: &Scene, view: &ViewParams| {
+            draw(scene, view, &mut f).unwrap();
+            let want = fresh(scene, view);
+            assert!(!want.rgba.is_empty());
+            assert!(f == want, "redraw differs from a first draw");
+        };
+        check(&scene, &view);
+        check(&scene, &view);
+        scene.stars[17].vmag -= 3.0;
+        scene.stars[400].bv = 1.7;
+        check(&scene, &view);
+        scene.stars.swap(3, 500);
+        check(&scene, &view);
+        scene.stars.truncate(700);
+        check(&scene, &view);
+        scene.mag_limit = 12.0;
+        check(&scene, &view);
+        view.night_mode = true;
+        check(&scene, &view);
+        view.dpr = 2.0;
+        check(&scene, &view);
+    }
 }

@@ -74,11 +74,30 @@ pub(crate) struct Canvas<'a> {
     pub h: usize,
     pub px: &'a mut [u8],
     pub luts: &'static Luts,
+    /// Whole rows of the last two fill colours: a span is filled by one
+    /// block copy from them (one call out of wasm, one `memcpy` natively).
+    fill_rows: [([u8; 4], Vec<u8>); 2],
 }
 
 impl<'a> Canvas<'a> {
     pub fn new(w: usize, h: usize, px: &'a mut [u8]) -> Self {
-        Canvas { w, h, px, luts: luts() }
+        Canvas { w, h, px, luts: luts(), fill_rows: [([0; 4], Vec::new()), ([0; 4], Vec::new())] }
+    }
+
+    /// A row of `rgba`, `w` pixels long.
+    fn fill_row(&mut self, rgba: [u8; 4]) -> usize {
+        let n = self.w * 4;
+        if let Some(k) = self.fill_rows.iter().position(|(c, r)| *c == rgba && r.len() == n) {
+            return k;
+        }
+        // Replace the older one: slot 1 moves to slot 0.
+        self.fill_rows.swap(0, 1);
+        let (c, r) = &mut self.fill_rows[1];
+        *c = rgba;
+        r.clear();
+        r.resize(n, 0);
+        fill_short(r, rgba);
+        1
     }
 
 
@@ -96,7 +115,12 @@ impl<'a> Canvas<'a> {
             return;
         }
         let row = y * self.w * 4;
-        fill_rgba(&mut self.px[row + x0 * 4..row + x1 * 4], rgba);
+        if x1 - x0 < 64 {
+            fill_short(&mut self.px[row + x0 * 4..row + x1 * 4], rgba);
+            return;
+        }
+        let k = self.fill_row(rgba);
+        self.px[row + x0 * 4..row + x1 * 4].copy_from_slice(&self.fill_rows[k].1[x0 * 4..x1 * 4]);
     }
 
     /// Adds linear light `c * k` to pixel (x, y); no bounds check on purpose-
@@ -118,6 +142,20 @@ impl<'a> Canvas<'a> {
         for k in 0..3 {
             let v = s2l[p[k] as usize];
             p[k] = enc(l2s, v + (c[k] - v) * a.min(1.0));
+        }
+    }
+
+    /// [`Canvas::blend`] for a coverage already in [0, 1], without the early
+    /// return: a coverage of 0 writes the same bytes back (every byte
+    /// round-trips through the tables).
+    #[inline(always)]
+    pub fn blend_any(&mut self, idx: usize, c: [f32; 3], a: f32) {
+        let s2l = &self.luts.s2l;
+        let l2s = &self.luts.l2s;
+        let p = &mut self.px[idx..idx + 3];
+        for k in 0..3 {
+            let v = s2l[p[k] as usize];
+            p[k] = enc(l2s, v + (c[k] - v) * a);
         }
     }
 
@@ -152,7 +190,7 @@ impl<'a> Canvas<'a> {
                 let px = x as f32 + 0.5;
                 let t = (((px - a.0) * dx + (py - a.1) * dy) / len2).clamp(0.0, 1.0);
                 let (ex, ey) = (px - a.0 - t * dx, py - a.1 - t * dy);
-                let d = libm::sqrtf(ex * ex + ey * ey);
+                let d = sqrt(ex * ex + ey * ey);
                 let cov = (half + 0.5 - d).clamp(0.0, 1.0);
                 if cov > 0.0 {
                     let i = self.idx(x, y);
@@ -189,9 +227,104 @@ pub fn fill_rgba(px: &mut [u8], rgba: [u8; 4]) {
     }
 }
 
+/// Fills an RGBA8 slice with one colour, 16 bytes per store.
+#[inline]
+pub(crate) fn fill_short(px: &mut [u8], rgba: [u8; 4]) {
+    let w = u32::from_ne_bytes(rgba) as u128;
+    let pat = (w | w << 32 | w << 64 | w << 96).to_ne_bytes();
+    let mut blocks = px.chunks_exact_mut(16);
+    for b in &mut blocks {
+        b.copy_from_slice(&pat);
+    }
+    for c in blocks.into_remainder().chunks_exact_mut(4) {
+        c.copy_from_slice(&rgba);
+    }
+}
+
+/// Square root. IEEE 754 makes it correctly rounded on every target (one
+/// instruction: `sqrtss`, wasm `f32.sqrt`), so it gives the same bits as
+/// `libm::sqrtf`, which on wasm is the same function done in software.
+#[inline(always)]
+pub(crate) fn sqrt(x: f32) -> f32 {
+    x.sqrt()
+}
+
+/// `v.floor()` as a float, exact, without a library call on targets lacking a
+/// rounding instruction: floats of magnitude ≥ 2²³ (and NaN) are already
+/// integral. The sign of a zero result may differ, which no caller sees.
+#[inline(always)]
+pub(crate) fn floor_f(v: f32) -> f32 {
+    if v.abs() < 8_388_608.0 {
+        let f = v as i32 as f32;
+        if f > v { f - 1.0 } else { f }
+    } else {
+        v
+    }
+}
+
+/// `v.ceil()` as a float (see [`floor_f`]).
+#[inline(always)]
+pub(crate) fn ceil_f(v: f32) -> f32 {
+    -floor_f(-v)
+}
+
 /// Floor of a float as i32 without a libm call (inputs are pixel coordinates).
 #[inline(always)]
 pub(crate) fn floor_i32(v: f32) -> i32 {
     let i = v as i32;
     if (i as f32) > v { i - 1 } else { i }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Every byte decodes and encodes back to itself, so adding zero light
+    /// (the stamps' and the rim's branch-free paths) leaves a pixel as it is.
+    #[test]
+    fn every_byte_round_trips() {
+        let l = luts();
+        for b in 0..=255u8 {
+            assert_eq!(enc(&l.l2s, l.s2l[b as usize]), b, "byte {b}");
+            assert_eq!(enc(&l.l2s, l.s2l[b as usize] + 0.0 * 0.7), b, "byte {b} plus zero");
+        }
+    }
+
+    /// The library-free floor, ceiling and square root give the bits of the
+    /// library ones over pixel-scale values, halves, negatives and huge values.
+    #[test]
+    fn floor_ceil_sqrt_match_the_library() {
+        let mut v = vec![0.0f32, -0.0, 0.5, -0.5, 1.0, -1.0, 8_388_607.5, -8_388_607.5, 8_388_608.0, 1e30, -1e30, f32::INFINITY];
+        let mut x = -5000.0f32;
+        while x < 5000.0 {
+            v.push(x);
+            x += 0.173;
+        }
+        for &x in &v {
+            assert_eq!(floor_f(x), libm::floorf(x), "floor {x}");
+            assert_eq!(ceil_f(x), libm::ceilf(x), "ceil {x}");
+            assert_eq!(sqrt(x.abs()).to_bits(), libm::sqrtf(x.abs()).to_bits(), "sqrt {x}");
+        }
+        assert!(floor_f(f32::NAN).is_nan() && ceil_f(f32::NAN).is_nan());
+    }
+
+    /// A span fill writes the colour exactly over [x0, x1) and nothing else,
+    /// for the short path and the copied-row path, after colour changes.
+    #[test]
+    fn fill_span_writes_only_its_span() {
+        let (w, h) = (300usize, 3usize);
+        let mut px = vec![7u8; w * h * 4];
+        let mut cv = Canvas::new(w, h, &mut px);
+        let spans = [(1, 0, 5, [1, 2, 3, 255]), (1, 10, 290, [4, 5, 6, 255]), (2, 3, 200, [1, 2, 3, 255]), (0, 250, 400, [9, 9, 9, 255]), (2, 299, 300, [4, 5, 6, 255])];
+        for &(y, x0, x1, c) in &spans {
+            cv.fill_span(y, x0, x1, c);
+        }
+        let mut want = vec![7u8; w * h * 4];
+        for &(y, x0, x1, c) in &spans {
+            for x in x0..x1.min(w) {
+                want[(y * w + x) * 4..(y * w + x) * 4 + 4].copy_from_slice(&c);
+            }
+        }
+        assert_eq!(px, want);
+    }
 }

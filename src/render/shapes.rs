@@ -157,7 +157,7 @@ pub(crate) fn draw_dsos(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, pal: 
                 let dx = x as f32 + 0.5 - e.cx;
                 let u = e.inv[0] * dx + e.inv[1] * dy;
                 let v = e.inv[2] * dx + e.inv[3] * dy;
-                let r = libm::sqrtf(u * u + v * v);
+                let r = super::raster::sqrt(u * u + v * v);
                 if r >= p.r_max {
                     continue;
                 }

@@ -9,6 +9,7 @@
 //! grows as (peak / 1.5)^0.3, so displayed flux grows as f^0.6 (bright stars
 //! look bigger, not just clipped), capped at σ = 7 px × dpr (and 36 px).
 
+use super::lanes::{add4, add_row, MIN_LIGHT};
 use super::raster::Canvas;
 use std::sync::OnceLock;
 
@@ -63,13 +64,12 @@ pub fn star_look(vmag: f32, mag_limit: f32, dpr: f32) -> StarLook {
     StarLook { flux: peak * core::f32::consts::TAU * sigma * sigma, sigma_px: sigma }
 }
 
-/// Stamps a star centred at (x, y) (pixel units, pixel i spans [i, i+1)).
-/// Only rows in `rows` = [first, end) are touched (band rendering);
-/// `wx` is scratch space reused across stars.
 /// Sub-pixel phases of the precomputed small-star weights: positions are kept
 /// to 1/128 px for stars drawn at the base width.
 const PHASES: usize = 64;
 const SMALL_N: usize = 6;
+/// Row length of the weight table: SMALL_N rounded up to whole groups of four.
+const SMALL_W: usize = 8;
 
 /// Pixel weights of the base-width PSF for each sub-pixel phase (one axis):
 /// the first pixel's offset from floor(x) and up to 6 weights.
@@ -78,7 +78,13 @@ pub(crate) struct SmallPsf {
     ok: bool,
     off: [i32; PHASES],
     n: [usize; PHASES],
-    w: [[f32; SMALL_N]; PHASES],
+    /// Weights, zero past `n`.
+    w: [[f32; SMALL_W]; PHASES],
+    /// Largest weight of each phase.
+    wmax: [f32; PHASES],
+    /// Largest `n` rounded up to a multiple of four: rows are drawn this
+    /// wide where the frame allows (the zero weights add nothing).
+    nw: usize,
 }
 
 impl SmallPsf {
@@ -86,7 +92,7 @@ impl SmallPsf {
         let tab = cdf_table();
         let sigma = SIGMA0_PX * dpr;
         let r = (STAMP_SIGMAS * sigma).max(1.0);
-        let mut p = SmallPsf { sigma, ok: false, off: [0; PHASES], n: [0; PHASES], w: [[0.0; SMALL_N]; PHASES] };
+        let mut p = SmallPsf { sigma, ok: false, off: [0; PHASES], n: [0; PHASES], w: [[0.0; SMALL_W]; PHASES], wmax: [0.0; PHASES], nw: 0 };
         for ph in 0..PHASES {
             let fx = (ph as f32 + 0.5) / PHASES as f32;
             let a = super::raster::floor_i32(fx - r);
@@ -97,8 +103,10 @@ impl SmallPsf {
                 let x = (a + k as i32) as f32;
                 p.w[ph][k] = cdf(tab, (x + 1.0 - fx) / sigma) - cdf(tab, (x - fx) / sigma);
             }
+            p.wmax[ph] = p.w[ph].iter().copied().fold(0.0, f32::max);
         }
         p.ok = p.n.iter().all(|&n| n < SMALL_N);
+        p.nw = p.n.iter().copied().max().unwrap_or(0).div_ceil(4) * 4;
         p
     }
 
@@ -110,6 +118,7 @@ impl SmallPsf {
 }
 
 /// Stamps a base-width star from the phase tables (rows clipped to `rows`).
+#[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f32; 3], rows: (usize, usize), p: &SmallPsf) {
     use super::raster::floor_i32;
     if !(x > -8.0 && y > -8.0 && x < cv.w as f32 + 8.0 && y < cv.h as f32 + 8.0) {
@@ -118,28 +127,44 @@ pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f
     let (ix, iy) = (floor_i32(x), floor_i32(y));
     let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
     let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
-    let (s2l, l2s) = (&cv.luts.s2l, &cv.luts.l2s);
+    let luts = cv.luts;
     let w4 = cv.w * 4;
     let wx = &p.w[phx];
+    let wxmax = p.wmax[phx];
     let x0 = ix + p.off[phx];
-    for (j, wy) in p.w[phy].iter().take(p.n[phy]).enumerate() {
-        let yy = iy + p.off[phy] + j as i32;
-        if yy < rows.0 as i32 || yy >= rows.1 as i32 || yy >= cv.h as i32 {
+    // Table rows inside `rows` and the frame.
+    let y_first = iy + p.off[phy];
+    let j0 = (rows.0 as i32 - y_first).max(0) as usize;
+    let j1 = ((rows.1.min(cv.h) as i32 - y_first).max(0) as usize).min(p.n[phy]);
+    // Whole rows of `nw` pixels when they fit inside the frame.
+    let nw = p.nw.min(SMALL_W);
+    let whole = x0 >= 0 && x0 as usize + nw <= cv.w;
+    for j in j0..j1 {
+        let ky = p.w[phy][j] * flux;
+        // ky · w ≤ ky · wmax for every pixel of the row (rounding is monotonic).
+        if ky < MIN_LIGHT || ky * wxmax < MIN_LIGHT {
             continue;
         }
-        let ky = wy * flux;
-        if ky < 1.0 / 2048.0 {
+        let row = (y_first + j as i32) as usize * w4;
+        if whole {
+            let at = row + x0 as usize * 4;
+            if nw == 4 {
+                if let (Ok(seg), Ok(w)) = (<&mut [u8; 16]>::try_from(&mut cv.px[at..at + 16]), <&[f32; 4]>::try_from(&wx[..4])) {
+                    add4(seg, w, ky, colour, luts);
+                }
+            } else {
+                add_row(&mut cv.px[at..at + 4 * nw], &wx[..nw], ky, colour, luts);
+            }
             continue;
         }
-        let row = yy as usize * w4;
         for (i, w) in wx.iter().take(p.n[phx]).enumerate() {
             let xx = x0 + i as i32;
             let k = ky * w;
-            if xx < 0 || xx >= cv.w as i32 || k < 1.0 / 2048.0 {
+            if xx < 0 || xx >= cv.w as i32 || k < MIN_LIGHT {
                 continue;
             }
             let at = row + xx as usize * 4;
-            super::raster::add_px(&mut cv.px[at..at + 4], s2l, l2s, colour, k);
+            super::raster::add_px(&mut cv.px[at..at + 4], &luts.s2l, &luts.l2s, colour, k);
         }
     }
 }
@@ -149,6 +174,10 @@ pub fn stamp_radius_px(look: StarLook) -> f32 {
     (STAMP_SIGMAS * look.sigma_px).max(1.0)
 }
 
+/// Stamps a star centred at (x, y) (pixel units, pixel i spans [i, i+1)).
+/// Only rows in `rows` = [first, end) are touched (band rendering);
+/// `wx` is scratch space reused across stars.
+#[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f32; 3], rows: (usize, usize), wx: &mut Vec<f32>) {
     let tab = cdf_table();
     let r = (STAMP_SIGMAS * look.sigma_px).max(1.0);
@@ -171,22 +200,20 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         wx.push(next - prev);
         prev = next;
     }
-    let (s2l, l2s) = (&cv.luts.s2l, &cv.luts.l2s);
+    let wxmax = wx.iter().copied().fold(0.0, f32::max);
+    // Rows run to whole groups of four when the frame allows (zero weights add nothing).
+    let xe = if x0 + (x1 - x0).div_ceil(4) * 4 <= cv.w { x0 + (x1 - x0).div_ceil(4) * 4 } else { x1 };
+    wx.resize(xe - x0, 0.0);
+    let luts = cv.luts;
     let w4 = cv.w * 4;
     let mut prev_y = cdf(tab, (y0 as f32 - y) * inv);
     for yy in y0..y1 {
         let next = cdf(tab, ((yy + 1) as f32 - y) * inv);
         let ky = (next - prev_y) * look.flux;
         prev_y = next;
-        if ky < 1.0 / 2048.0 {
+        if ky < MIN_LIGHT || ky * wxmax < MIN_LIGHT {
             continue;
         }
-        let row = &mut cv.px[yy * w4 + x0 * 4..yy * w4 + x1 * 4];
-        for (p, w) in row.chunks_exact_mut(4).zip(wx.iter()) {
-            let k = ky * w;
-            if k >= 1.0 / 2048.0 {
-                super::raster::add_px(p, s2l, l2s, colour, k);
-            }
-        }
+        add_row(&mut cv.px[yy * w4 + x0 * 4..yy * w4 + xe * 4], &wx[..xe - x0], ky, colour, luts);
     }
 }
