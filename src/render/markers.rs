@@ -2,6 +2,7 @@
 //! and the markers: north and east, the zenith, and the drift direction with
 //! the time the target takes to leave an undriven field.
 
+use super::lanes::{rim1, rim4, RimShade};
 use super::raster::Canvas;
 use super::{background, Label, Palette, ViewTransform};
 use crate::scene::{FieldEdge, LabelKind, Scene};
@@ -75,23 +76,10 @@ fn full_dark_is_fill(pal: &Palette) -> bool {
     })
 }
 
-/// Sky fill for the rows of a band: only the pixels the field mask does not
-/// overwrite with the outside colour afterwards (all of them for a polygon).
-pub(crate) fn fill_sky(cv: &mut Canvas, edge: Option<&CircleEdge>, rows: (usize, usize), sky8: [u8; 4]) {
-    let Some(e) = edge else {
-        cv.fill_rows(rows, sky8);
-        return;
-    };
-    for y in rows.0..rows.1.min(cv.h) {
-        if let Some((xl, xr)) = e.span(y, cv.w) {
-            cv.fill_span(y, xl, xr, sky8);
-        }
-    }
-}
-
 /// Darkens everything outside the field and draws its rim, anti-aliased.
 /// Row spans: pixels far from the edge are filled or skipped whole; only a
 /// band about the edge is shaded per pixel.
+#[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, rows: (usize, usize), edge: Option<&CircleEdge>) {
     let out = pal.map(background::OUTSIDE);
     let rim = pal.map(RIM);
@@ -108,33 +96,48 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
                     &own
                 }
             };
-            let (cx, cy, r, ri) = (e.cx, e.cy, e.r, e.ri);
+            let (cx, cy, ri) = (e.cx, e.cy, e.ri);
+            let g = RimShade { cx, r: e.r, hw5: half_w + 0.5, out, rim };
+            let luts = cv.luts;
+            // The outside runs from the end of one row's span to the start of
+            // the next row's: filled as one run (fewer, longer fills).
+            let w = cv.w;
+            let mut run = rows.0 * w;
             for y in rows.0..rows.1.min(cv.h) {
                 let Some((xl, xr)) = e.span(y, cv.w) else {
-                    cv.fill_span(y, 0, cv.w, out8);
                     continue;
                 };
                 let dy = y as f32 + 0.5 - cy;
-                cv.fill_span(y, 0, xl, out8);
-                cv.fill_span(y, xr, cv.w, out8);
+                // xl may lie past the row's end (all of it outside), xr never does.
+                let xl_in = xl.min(w);
+                cv.fill_run(run, y * w + xl_in, out8);
+                run = y * w + xr.max(xl_in);
                 let (il, ir) = if dy.abs() < ri {
                     let hi = super::raster::sqrt(ri * ri - dy * dy);
                     (span_end(cx - hi, cv.w).max(xl), span_start(cx + hi).min(xr))
                 } else {
                     (xr, xr)
                 };
-                let shade = |cv: &mut Canvas, x: usize| {
-                    let dx = x as f32 + 0.5 - cx;
-                    let d = super::raster::sqrt(dx * dx + dy * dy) - r;
-                    edge_pixel(cv, x, y, d, half_w, out, rim);
-                };
-                for x in xl..il.min(xr) {
-                    shade(cv, x);
-                }
-                for x in ir.max(il)..xr {
-                    shade(cv, x);
+                // Shaded spans, and how far a group of four may run past each:
+                // into the inner gap (no-ops there), or past xr (filled after).
+                let spans = if il < ir { [(xl, il.min(xr), ir), (ir, xr, w)] } else { [(xl, xr, w), (xr, xr, w)] };
+                let row = y * w * 4;
+                for (a, b, limit) in spans {
+                    let mut x = a;
+                    while x < b {
+                        if x + 4 <= limit {
+                            if let Ok(p) = <&mut [u8; 16]>::try_from(&mut cv.px[row + x * 4..row + x * 4 + 16]) {
+                                rim4!(p, x, dy, &g, luts);
+                            }
+                            x += 4;
+                        } else {
+                            rim1(&mut cv.px[row + x * 4..row + x * 4 + 4], x, dy, &g, luts);
+                            x += 1;
+                        }
+                    }
                 }
             }
+            cv.fill_run(run, rows.1.min(cv.h) * w, out8);
         }
         FieldEdge::Polygon { corners } => {
             let pts: Vec<(f32, f32)> = corners.iter().map(|c| t.to_px(*c)).collect();
@@ -183,8 +186,10 @@ fn span_end(x: f32, w: usize) -> usize {
 #[inline(always)]
 fn edge_pixel(cv: &mut Canvas, x: usize, y: usize, d: f32, half_w: f32, out: [f32; 3], rim: [f32; 3]) {
     let i = cv.idx(x, y);
-    cv.blend_any(i, out, (d + 0.5).clamp(0.0, 1.0));
-    cv.blend_any(i, rim, (half_w + 0.5 - d.abs()).clamp(0.0, 1.0));
+    let luts = cv.luts;
+    let p = &mut cv.px[i..i + 4];
+    super::raster::blend_px(p, &luts.s2l, &luts.l2s, out, (d + 0.5).clamp(0.0, 1.0));
+    super::raster::blend_px(p, &luts.s2l, &luts.l2s, rim, (half_w + 0.5 - d.abs()).clamp(0.0, 1.0));
 }
 
 /// For a convex polygon (pixel coords): the inside x-span on row `yc` and the

@@ -224,6 +224,7 @@ pub fn draw(scene: &Scene, view: &ViewParams, frame: &mut Frame) -> Result<Vec<L
 /// Lists reused from frame to frame (see [`draw`]).
 #[derive(Default)]
 struct Scratch {
+    /// Stars in view, by first row.
     stars: Vec<PreparedStar>,
     unsorted: Vec<PreparedStar>,
     count: Vec<u32>,
@@ -274,6 +275,7 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let t = view_transform(scene, view);
     let mut cv = raster::Canvas::new(view.width_px as usize, view.height_px as usize, &mut frame.rgba);
     let sky8 = raster::to_rgba8(pal.map(background::sky_colour(&scene.sky)));
+    cv.bg = lanes::Background::new(sky8, cv.luts);
     prepare_stars(scene, &t, view.dpr, &pal, cv.h, sc);
     let Scratch { stars, wx, .. } = sc;
     let small = stars::SmallPsf::new(view.dpr);
@@ -293,7 +295,7 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let mut ready_to = |cv: &mut raster::Canvas, to: usize| {
         while ready < to {
             let rows = (ready, (ready + BAND_ROWS).min(h));
-            markers::fill_sky(cv, edge.as_ref(), rows, sky8);
+            cv.fill_run(rows.0 * cv.w, rows.1 * cv.w, sky8);
             shapes::draw_dsos(cv, scene, &t, &pal, rows);
             ready = rows.1;
         }
@@ -303,8 +305,10 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     while y < h {
         let rows = (y, (y + BAND_ROWS).min(h));
         ready_to(&mut cv, rows.1);
-        while next < stars.len() && (stars[next].y0 as usize) < rows.1 {
-            let s = &stars[next];
+        while let Some(s) = stars.get(next) {
+            if s.y0 as usize >= rows.1 {
+                break;
+            }
             next += 1;
             let clip = (band_start(s.y0 as usize), band_end(s.y1 as usize));
             ready_to(&mut cv, clip.1);
@@ -414,7 +418,8 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, h: u
     for i in 0..h {
         count[i + 1] += count[i];
     }
-    // order[slot] = index in `tmp`, then one pass copies the stars in order.
+    // order[slot] = index in `tmp`; then one pass copies the stars in order
+    // (drawing reads them in order, so they are best laid out that way).
     let order = &mut sc.order;
     order.clear();
     order.resize(tmp.len(), 0);

@@ -62,6 +62,17 @@ pub(crate) fn add_px(p: &mut [u8], s2l: &[f32; 256], l2s: &[u8; L2S_N], c: [f32;
     p[2] = enc(l2s, s2l[p[2] as usize] + c[2] * k);
 }
 
+/// Blends one RGBA pixel towards linear colour `c` by a coverage already in
+/// [0, 1] ([`Canvas::blend`] without its early return: a coverage of 0
+/// writes the same bytes back, every byte round-trips through the tables).
+#[inline(always)]
+pub(crate) fn blend_px(p: &mut [u8], s2l: &[f32; 256], l2s: &[u8; L2S_N], c: [f32; 3], a: f32) {
+    for k in 0..3 {
+        let v = s2l[p[k] as usize];
+        p[k] = enc(l2s, v + (c[k] - v) * a);
+    }
+}
+
 /// Linear RGB colour → RGBA8 (opaque).
 pub fn to_rgba8(c: [f32; 3]) -> [u8; 4] {
     let l = &luts().l2s;
@@ -77,11 +88,14 @@ pub(crate) struct Canvas<'a> {
     /// Whole rows of the last two fill colours: a span is filled by one
     /// block copy from them (one call out of wasm, one `memcpy` natively).
     fill_rows: [([u8; 4], Vec<u8>); 2],
+    /// The background the stamps may find unchanged (see `lanes::Background`).
+    pub bg: super::lanes::Background,
 }
 
 impl<'a> Canvas<'a> {
     pub fn new(w: usize, h: usize, px: &'a mut [u8]) -> Self {
-        Canvas { w, h, px, luts: luts(), fill_rows: [([0; 4], Vec::new()), ([0; 4], Vec::new())] }
+        let luts = luts();
+        Canvas { w, h, px, luts, fill_rows: [([0; 4], Vec::new()), ([0; 4], Vec::new())], bg: super::lanes::Background::new([0, 0, 0, 255], luts) }
     }
 
     /// A row of `rgba`, `w` pixels long.
@@ -101,11 +115,6 @@ impl<'a> Canvas<'a> {
     }
 
 
-    /// Fills rows [first, end).
-    pub fn fill_rows(&mut self, rows: (usize, usize), rgba: [u8; 4]) {
-        let (a, b) = (rows.0.min(self.h), rows.1.min(self.h));
-        fill_rgba(&mut self.px[a * self.w * 4..b * self.w * 4], rgba);
-    }
 
     /// Fills pixels [x0, x1) of row y.
     #[inline]
@@ -121,6 +130,32 @@ impl<'a> Canvas<'a> {
         }
         let k = self.fill_row(rgba);
         self.px[row + x0 * 4..row + x1 * 4].copy_from_slice(&self.fill_rows[k].1[x0 * 4..x1 * 4]);
+    }
+
+    /// Fills pixels [a, b) of the whole buffer (row-major), however many rows
+    /// that crosses: short runs by direct stores, long ones by block copies
+    /// of a prepared row.
+    pub fn fill_run(&mut self, a: usize, b: usize, rgba: [u8; 4]) {
+        let b = b.min(self.w * self.h);
+        if a >= b {
+            return;
+        }
+        if b - a < 64 {
+            fill_short(&mut self.px[a * 4..b * 4], rgba);
+            return;
+        }
+        let k = self.fill_row(rgba);
+        let pat = &self.fill_rows[k].1;
+        let run = &mut self.px[a * 4..b * 4];
+        let first = pat.len().min(run.len());
+        run[..first].copy_from_slice(&pat[..first]);
+        // Then double what is done: a few long copies for many rows.
+        let mut done = first;
+        while done < run.len() {
+            let m = done.min(run.len() - done);
+            run.copy_within(0..m, done);
+            done += m;
+        }
     }
 
     /// Adds linear light `c * k` to pixel (x, y); no bounds check on purpose-
@@ -142,20 +177,6 @@ impl<'a> Canvas<'a> {
         for k in 0..3 {
             let v = s2l[p[k] as usize];
             p[k] = enc(l2s, v + (c[k] - v) * a.min(1.0));
-        }
-    }
-
-    /// [`Canvas::blend`] for a coverage already in [0, 1], without the early
-    /// return: a coverage of 0 writes the same bytes back (every byte
-    /// round-trips through the tables).
-    #[inline(always)]
-    pub fn blend_any(&mut self, idx: usize, c: [f32; 3], a: f32) {
-        let s2l = &self.luts.s2l;
-        let l2s = &self.luts.l2s;
-        let p = &mut self.px[idx..idx + 3];
-        for k in 0..3 {
-            let v = s2l[p[k] as usize];
-            p[k] = enc(l2s, v + (c[k] - v) * a);
         }
     }
 
@@ -247,6 +268,14 @@ pub(crate) fn fill_short(px: &mut [u8], rgba: [u8; 4]) {
 #[inline(always)]
 pub(crate) fn sqrt(x: f32) -> f32 {
     x.sqrt()
+}
+
+/// `a.max(b)` when `b` is a number: a compare and a select (in wasm,
+/// `f32::max` is a library call for its NaN rule; here a NaN `a` gives `b`
+/// just as `f32::max` does).
+#[inline(always)]
+pub(crate) fn max_f(a: f32, b: f32) -> f32 {
+    if a > b { a } else { b }
 }
 
 /// `v.floor()` as a float, exact, without a library call on targets lacking a

@@ -10,7 +10,7 @@
 //! look bigger, not just clipped), capped at σ = 7 px × dpr (and 36 px).
 
 use super::lanes::{add4, add_row, MIN_LIGHT};
-use super::raster::Canvas;
+use super::raster::{max_f, Canvas};
 use std::sync::OnceLock;
 
 const CDF_N: usize = 2048;
@@ -91,7 +91,7 @@ impl SmallPsf {
     pub fn new(dpr: f32) -> SmallPsf {
         let tab = cdf_table();
         let sigma = SIGMA0_PX * dpr;
-        let r = (STAMP_SIGMAS * sigma).max(1.0);
+        let r = max_f(STAMP_SIGMAS * sigma, 1.0);
         let mut p = SmallPsf { sigma, ok: false, off: [0; PHASES], n: [0; PHASES], w: [[0.0; SMALL_W]; PHASES], wmax: [0.0; PHASES], nw: 0 };
         for ph in 0..PHASES {
             let fx = (ph as f32 + 0.5) / PHASES as f32;
@@ -103,7 +103,7 @@ impl SmallPsf {
                 let x = (a + k as i32) as f32;
                 p.w[ph][k] = cdf(tab, (x + 1.0 - fx) / sigma) - cdf(tab, (x - fx) / sigma);
             }
-            p.wmax[ph] = p.w[ph].iter().copied().fold(0.0, f32::max);
+            p.wmax[ph] = p.w[ph].iter().copied().fold(0.0, max_f);
         }
         p.ok = p.n.iter().all(|&n| n < SMALL_N);
         p.nw = p.n.iter().copied().max().unwrap_or(0).div_ceil(4) * 4;
@@ -150,10 +150,10 @@ pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f
             let at = row + x0 as usize * 4;
             if nw == 4 {
                 if let (Ok(seg), Ok(w)) = (<&mut [u8; 16]>::try_from(&mut cv.px[at..at + 16]), <&[f32; 4]>::try_from(&wx[..4])) {
-                    add4(seg, w, ky, colour, luts);
+                    add4!(seg, w, ky, colour, luts, &cv.bg);
                 }
             } else {
-                add_row(&mut cv.px[at..at + 4 * nw], &wx[..nw], ky, colour, luts);
+                add_row(&mut cv.px[at..at + 4 * nw], &wx[..nw], ky, colour, luts, &cv.bg);
             }
             continue;
         }
@@ -171,7 +171,7 @@ pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f
 
 /// Stamp reach in pixels from the centre.
 pub fn stamp_radius_px(look: StarLook) -> f32 {
-    (STAMP_SIGMAS * look.sigma_px).max(1.0)
+    max_f(STAMP_SIGMAS * look.sigma_px, 1.0)
 }
 
 /// Stamps a star centred at (x, y) (pixel units, pixel i spans [i, i+1)).
@@ -180,7 +180,7 @@ pub fn stamp_radius_px(look: StarLook) -> f32 {
 #[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f32; 3], rows: (usize, usize), wx: &mut Vec<f32>) {
     let tab = cdf_table();
-    let r = (STAMP_SIGMAS * look.sigma_px).max(1.0);
+    let r = max_f(STAMP_SIGMAS * look.sigma_px, 1.0);
     if !(x + r >= 0.0 && y + r >= 0.0 && x - r < cv.w as f32 && y - r < cv.h as f32) {
         return;
     }
@@ -200,7 +200,7 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         wx.push(next - prev);
         prev = next;
     }
-    let wxmax = wx.iter().copied().fold(0.0, f32::max);
+    let wxmax = wx.iter().copied().fold(0.0, max_f);
     // Rows run to whole groups of four when the frame allows (zero weights add nothing).
     let xe = if x0 + (x1 - x0).div_ceil(4) * 4 <= cv.w { x0 + (x1 - x0).div_ceil(4) * 4 } else { x1 };
     wx.resize(xe - x0, 0.0);
@@ -214,6 +214,6 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         if ky < MIN_LIGHT || ky * wxmax < MIN_LIGHT {
             continue;
         }
-        add_row(&mut cv.px[yy * w4 + x0 * 4..yy * w4 + xe * 4], &wx[..xe - x0], ky, colour, luts);
+        add_row(&mut cv.px[yy * w4 + x0 * 4..yy * w4 + xe * 4], &wx[..xe - x0], ky, colour, luts, &cv.bg);
     }
 }
