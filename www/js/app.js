@@ -462,7 +462,11 @@ async function main() {
     app.firstTierFiles.catch(() => {}); // reported when loadCatalogs awaits it
     [app.tiers] = await Promise.all([tiersP, app.host.start().then(() => performance.mark('nf:wasm-ready'))]);
   } catch (e) {
-    app.showError(`The sky engine could not start: ${e.message}`);
+    const wa = globalThis.WebAssembly;
+    const tooOld = !wa || e instanceof wa.CompileError;
+    app.showError(tooOld
+      ? `This browser is too old for the sky engine (it needs WebAssembly with SIMD: Safari or iOS 16.4 and later, Chrome 91, Firefox 89). Please update the browser. (${e.message})`
+      : `The sky engine could not start: ${e.message}`);
     return;
   }
   openLink();
