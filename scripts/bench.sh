@@ -14,3 +14,5 @@ native_json=$("$WASM_TARGET_DIR-native/release/bench" $QUICK catalog)
 scripts/build-wasm.sh "$WASM_TARGET_DIR-bench/pkg" --bench
 wasm_json=$(NIGHTFIELD_PKG="$(cd "$WASM_TARGET_DIR-bench/pkg" && pwd)" node scripts/bench-wasm.mjs $QUICK)
 node scripts/bench-report.mjs "$native_json" "$wasm_json"
+# The page: how soon the first view is painted after the shipped wasm is instantiated.
+if [ -x /usr/bin/chromium ] && [ -d tests/browser/node_modules/playwright-core ]; then node scripts/bench-page.mjs $QUICK; else echo "[bench] page timing skipped (make test installs Chromium and playwright-core)"; fi
