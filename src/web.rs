@@ -34,6 +34,15 @@ fn scenario_from(v: JsValue) -> Result<Scenario, JsValue> {
     Scenario::from_json(&json_text(&v)?).map_err(err)
 }
 
+/// A finder object from the page (undefined or null: the default finder).
+fn finder_spec(finder: &JsValue) -> Result<Option<crate::find::finder::FinderSpec>, JsValue> {
+    if finder.is_undefined() || finder.is_null() {
+        return Ok(None);
+    }
+    let text = json_text(finder)?;
+    crate::json::from_str(&text).map(Some).map_err(|e| err(format!("the finder could not be read: {e}")))
+}
+
 #[wasm_bindgen]
 pub struct Engine {
     core: Core,
@@ -94,12 +103,7 @@ impl Engine {
     /// star-hop route, dial readings.
     #[wasm_bindgen(js_name = findCard)]
     pub fn find_card(&mut self, finder: JsValue) -> Result<JsValue, JsValue> {
-        let spec = if finder.is_undefined() || finder.is_null() {
-            None
-        } else {
-            let text = json_text(&finder)?;
-            Some(crate::json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
-        };
+        let spec = finder_spec(&finder)?;
         to_js(&self.core.find_card(spec).map_err(err)?)
     }
 
@@ -107,12 +111,7 @@ impl Engine {
     /// with the main field ringed and the route drawn; then `render` as usual.
     #[wasm_bindgen(js_name = finderView)]
     pub fn finder_view(&mut self, finder: JsValue) -> Result<JsValue, JsValue> {
-        let spec = if finder.is_undefined() || finder.is_null() {
-            None
-        } else {
-            let text = json_text(&finder)?;
-            Some(crate::json::from_str(&text).map_err(|e| err(format!("the finder could not be read: {e}")))?)
-        };
+        let spec = finder_spec(&finder)?;
         to_js(&self.core.finder_view(spec).map_err(err)?)
     }
 

@@ -226,18 +226,24 @@ impl Engine {
         night::plan(req, &self.cats, self.eph.as_ref())
     }
 
-    /// How to find the current target: pointing in words, the finder's view, a star-hop
-    /// route and dial readings (default finder: an 8×50 straight-through, 6° field).
-    pub fn find_card(&mut self, finder: Option<crate::find::finder::FinderSpec>) -> Result<crate::find::card::FindCard, EngineError> {
-        let spec = finder.unwrap_or(crate::find::finder::FinderSpec {
+    /// The finder to use (default: an 8×50 straight-through, 6° field), with the route
+    /// stars gathered from the loaded catalogs once.
+    fn prepare_finder(&mut self, finder: Option<crate::find::finder::FinderSpec>) -> crate::find::finder::FinderSpec {
+        if self.route_stars.is_none() {
+            self.route_stars = Some(finding::route_stars(&self.cats));
+        }
+        finder.unwrap_or(crate::find::finder::FinderSpec {
             kind: crate::find::finder::FinderKind::StraightThrough,
             aperture_mm: 50.0,
             magnification: 8.0,
             true_field_deg: 6.0,
-        });
-        if self.route_stars.is_none() {
-            self.route_stars = Some(finding::route_stars(&self.cats));
-        }
+        })
+    }
+
+    /// How to find the current target: pointing in words, the finder's view, a star-hop
+    /// route and dial readings (default finder: an 8×50 straight-through, 6° field).
+    pub fn find_card(&mut self, finder: Option<crate::find::finder::FinderSpec>) -> Result<crate::find::card::FindCard, EngineError> {
+        let spec = self.prepare_finder(finder);
         let c = self.composed.as_ref().ok_or(EngineError::NoScenario)?;
         let stars = self.route_stars.as_deref().unwrap_or(&[]);
         finding::card(c, &self.cats, self.eph.as_ref(), stars, spec)
@@ -247,15 +253,7 @@ impl Engine {
     /// star limit of the finder), with the main scope's field ringed and the star-hop route
     /// drawn; `render`, `pan` and `zoom` then draw it. `set_scenario` returns to the main view.
     pub fn finder_view(&mut self, finder: Option<crate::find::finder::FinderSpec>) -> Result<ViewFigures, EngineError> {
-        let spec = finder.unwrap_or(crate::find::finder::FinderSpec {
-            kind: crate::find::finder::FinderKind::StraightThrough,
-            aperture_mm: 50.0,
-            magnification: 8.0,
-            true_field_deg: 6.0,
-        });
-        if self.route_stars.is_none() {
-            self.route_stars = Some(finding::route_stars(&self.cats));
-        }
+        let spec = self.prepare_finder(finder);
         let main = self.composed.as_ref().ok_or(EngineError::NoScenario)?;
         let s = self.scenario.as_ref().ok_or(EngineError::NoScenario)?;
         let stars = self.route_stars.as_deref().unwrap_or(&[]);
