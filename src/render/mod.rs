@@ -289,8 +289,6 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     // little ahead, so that each star is drawn whole, once, when its first
     // band comes up; it is clipped to the bands its rows [y0, y1) fall in.
     let h = cv.h;
-    let band_start = |y: usize| y / BAND_ROWS * BAND_ROWS;
-    let band_end = |y: usize| (y.div_ceil(BAND_ROWS) * BAND_ROWS).min(h);
     let mut ready = 0usize;
     let mut ready_to = |cv: &mut raster::Canvas, to: usize| {
         while ready < to {
@@ -304,20 +302,17 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let mut y = 0usize;
     while y < h {
         let rows = (y, (y + BAND_ROWS).min(h));
-        ready_to(&mut cv, rows.1);
+        // The stars whose first row is in this band, and the bands they reach.
+        let (first, mut need) = (next, rows.1);
         while let Some(s) = stars.get(next) {
             if s.y0 as usize >= rows.1 {
                 break;
             }
+            need = need.max(band_end(s.y1 as usize, h));
             next += 1;
-            let clip = (band_start(s.y0 as usize), band_end(s.y1 as usize));
-            ready_to(&mut cv, clip.1);
-            if small.fits(s.look) {
-                stars::stamp_small(&mut cv, s.x, s.y, s.look.flux, s.colour, clip, &small);
-            } else {
-                stars::stamp(&mut cv, s.x, s.y, s.look, s.colour, clip, wx);
-            }
         }
+        ready_to(&mut cv, need);
+        stamp_stars(&mut cv, &stars[first..next], &small, wx);
         bodies::draw_bodies(&mut cv, scene, &t, view.dpr, &pal, rows);
         markers::field_mask(&mut cv, scene, &t, view.dpr, &pal, rows, edge.as_ref());
         y = rows.1;
@@ -327,6 +322,31 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let mut labels = markers::draw_markers(&mut cv, scene, &t, view.dpr, &pal);
     labels.extend(object_labels(scene, &t, view));
     Ok(labels)
+}
+
+/// First row of the band holding row y.
+fn band_start(y: usize) -> usize {
+    y / BAND_ROWS * BAND_ROWS
+}
+
+/// End of the band holding row y − 1 (clipped to the frame height h).
+fn band_end(y: usize, h: usize) -> usize {
+    (y.div_ceil(BAND_ROWS) * BAND_ROWS).min(h)
+}
+
+/// Stamps `stars` (their bands readied), each clipped to the bands its rows
+/// [y0, y1) fall in. In wasm compiled with simd128, so the stamps inline here.
+#[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
+fn stamp_stars(cv: &mut raster::Canvas, list: &[PreparedStar], small: &stars::SmallPsf, wx: &mut Vec<f32>) {
+    let h = cv.h;
+    for s in list {
+        let clip = (band_start(s.y0 as usize), band_end(s.y1 as usize, h));
+        if small.fits(s.look) {
+            stars::stamp_small(cv, s.x, s.y, s.look.flux, s.colour, clip, small);
+        } else {
+            stars::stamp(cv, s.x, s.y, s.look, s.colour, clip, wx);
+        }
+    }
 }
 
 /// Guide lines (finder views): the main field as a ring, the star-hop route as a path, in amber.
