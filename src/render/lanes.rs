@@ -9,7 +9,7 @@
 //! takes the one-pixel path. Inputs are finite (no NaN), where every min/max
 //! flavour agrees.
 
-use super::raster::{add_px, Luts};
+use super::raster::Luts;
 
 /// Light below this (linear) is not added: less than a third of one display
 /// level at black.
@@ -41,22 +41,28 @@ impl Background {
 
 /// Adds `colour · kept(ky · w[i])` to pixel i of the RGBA8 row segment `seg`
 /// for every i < w.len(). `seg` holds 4·w.len() bytes; groups of four go
-/// four lanes wide, the rest one by one.
-#[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
-#[cfg_attr(not(target_arch = "wasm32"), inline(always))]
-#[cfg_attr(target_arch = "wasm32", inline)]
-pub(crate) fn add_row(seg: &mut [u8], w: &[f32], ky: f32, colour: [f32; 3], luts: &Luts, bg: &Background) {
-    let n4 = w.len() / 4 * 4;
-    let (seg4, seg1) = seg.split_at_mut((n4 * 4).min(seg.len()));
-    for (p, w) in seg4.chunks_exact_mut(16).zip(w.chunks_exact(4)) {
-        if let (Ok(p), Ok(w)) = (<&mut [u8; 16]>::try_from(p), <&[f32; 4]>::try_from(w)) {
-            add4!(p, w, ky, colour, luts, bg);
+/// four lanes wide, the rest one by one. A macro, so that in wasm it lands
+/// inside the calling (simd128) stamp rather than in a call per row.
+macro_rules! add_row {
+    ($seg:expr, $w:expr, $ky:expr, $colour:expr, $luts:expr, $bg:expr) => {{
+        let seg: &mut [u8] = $seg;
+        let w: &[f32] = $w;
+        let (ky, colour): (f32, [f32; 3]) = ($ky, $colour);
+        let luts: &$crate::render::raster::Luts = $luts;
+        let bg: &$crate::render::lanes::Background = $bg;
+        let n4 = w.len() / 4 * 4;
+        let (seg4, seg1) = seg.split_at_mut((n4 * 4).min(seg.len()));
+        for (p, w) in seg4.chunks_exact_mut(16).zip(w.chunks_exact(4)) {
+            if let (Ok(p), Ok(w)) = (<&mut [u8; 16]>::try_from(p), <&[f32; 4]>::try_from(w)) {
+                $crate::render::lanes::add4!(p, w, ky, colour, luts, bg);
+            }
         }
-    }
-    for (p, w) in seg1.chunks_exact_mut(4).zip(w[n4..].iter()) {
-        add_px(p, &luts.s2l, &luts.l2s, colour, kept(ky * w));
-    }
+        for (p, w) in seg1.chunks_exact_mut(4).zip(w[n4..].iter()) {
+            $crate::render::raster::add_px(p, &luts.s2l, &luts.l2s, colour, $crate::render::lanes::kept(ky * w));
+        }
+    }};
 }
+pub(crate) use add_row;
 
 /// Adds `colour · kept(ky · w[i])` to the four RGBA8 pixels of `p`
 /// (use [`add4!`], which also covers wasm).
@@ -137,7 +143,7 @@ pub(crate) use add4;
 #[inline(always)]
 pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3], luts: &Luts, _bg: &Background) {
     for (p, w) in p.chunks_exact_mut(4).zip(w.iter()) {
-        add_px(p, &luts.s2l, &luts.l2s, colour, kept(ky * w));
+        super::raster::add_px(p, &luts.s2l, &luts.l2s, colour, kept(ky * w));
     }
 }
 
@@ -259,6 +265,7 @@ pub(crate) fn rim1(p: &mut [u8], x: usize, dy: f32, g: &RimShade, luts: &Luts) {
 
 #[cfg(test)]
 mod tests {
+    use super::super::raster::add_px;
     use super::*;
 
     /// The four-lane path writes the bytes of the one-pixel path, over every
@@ -281,7 +288,7 @@ mod tests {
                         let mut a: Vec<u8> = (0..20).map(|i| ((base + if plain { 37 * (i % 4) } else { 37 * i }) % 256) as u8).collect();
                         let bg = Background::new(if plain { [a[0], a[1], a[2], a[3]] } else { [1, 2, 3, 255] }, luts);
                         let mut b = a.clone();
-                        add_row(&mut a, &w, ky, c, luts, &bg);
+                        add_row!(&mut a, &w, ky, c, luts, &bg);
                         for (p, w) in b.chunks_exact_mut(4).zip(w.iter()) {
                             add_px(p, &luts.s2l, &luts.l2s, c, kept(ky * w));
                         }

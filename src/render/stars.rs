@@ -153,7 +153,7 @@ pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f
                     add4!(seg, w, ky, colour, luts, &cv.bg);
                 }
             } else {
-                add_row(&mut cv.px[at..at + 4 * nw], &wx[..nw], ky, colour, luts, &cv.bg);
+                add_row!(&mut cv.px[at..at + 4 * nw], &wx[..nw], ky, colour, luts, &cv.bg);
             }
             continue;
         }
@@ -214,6 +214,6 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         if ky < MIN_LIGHT || ky * wxmax < MIN_LIGHT {
             continue;
         }
-        add_row(&mut cv.px[yy * w4 + x0 * 4..yy * w4 + xe * 4], &wx[..xe - x0], ky, colour, luts, &cv.bg);
+        add_row!(&mut cv.px[yy * w4 + x0 * 4..yy * w4 + xe * 4], &wx[..xe - x0], ky, colour, luts, &cv.bg);
     }
 }
