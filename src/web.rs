@@ -163,6 +163,16 @@ impl Bench {
         let refs: Vec<(&str, &[u8])> = self.files.iter().map(|(n, b)| (n.as_str(), b.as_slice())).collect();
         to_js(&crate::bench::run_all(&refs, quick, &mut now))
     }
+
+    /// The render workload alone: [median frame, median floor, min frame,
+    /// min floor] in ns over `iterations` frames (for A/B runs of render changes).
+    pub fn render(&self, iterations: usize) -> Result<Vec<f64>, JsValue> {
+        let perf = js_sys::Reflect::get(&js_sys::global(), &JsValue::from_str("performance"))?;
+        let now_fn: js_sys::Function = js_sys::Reflect::get(&perf, &JsValue::from_str("now"))?.dyn_into()?;
+        let mut now = || now_fn.call0(&perf).ok().and_then(|v| v.as_f64()).unwrap_or(0.0) * 1e6;
+        let f = crate::render::bench::figures_with_clock(iterations, &mut now);
+        Ok(vec![f.median_frame_ns, f.median_floor_ns, f.min_frame_ns, f.min_floor_ns])
+    }
 }
 
 #[cfg(feature = "bench")]

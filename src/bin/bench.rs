@@ -1,7 +1,15 @@
 //! Native side of `make bench`: runs the shared workloads (src/bench.rs) and prints
-//! the report as one JSON line. Usage: bench [--quick] CATALOG_DIR
+//! the report as one JSON line. Usage: bench [--quick] CATALOG_DIR, or bench --render N
 fn main() {
     let args: Vec<String> = std::env::args().skip(1).collect();
+    // `bench --render N`: the render workload alone over N frames, printed as
+    // "median_frame_ns median_floor_ns" (for scripts/bench-render.mjs A/B runs).
+    if let Some(i) = args.iter().position(|a| a == "--render") {
+        let n = args.get(i + 1).and_then(|a| a.parse().ok()).unwrap_or(400);
+        let f = nightfield::render::bench::figures(n);
+        println!("{} {}", f.median_frame_ns, f.median_floor_ns);
+        return;
+    }
     let quick = args.iter().any(|a| a == "--quick");
     let dir = args.iter().find(|a| !a.starts_with("--")).cloned().unwrap_or_else(|| "catalog".into());
     let names = ["stars_bright.nfs", "stars_hip.nfs", "stars_gaia.nfs", "dso_openngc.nfd", "ephemeris.bin"];
