@@ -276,9 +276,9 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let mut cv = raster::Canvas::new(view.width_px as usize, view.height_px as usize, &mut frame.rgba);
     let sky8 = raster::to_rgba8(pal.map(background::sky_colour(&scene.sky)));
     cv.bg = lanes::Background::new(sky8, cv.luts);
-    prepare_stars(scene, &t, view.dpr, &pal, cv.h, sc);
-    let Scratch { stars, wx, .. } = sc;
     let small = stars::SmallPsf::new(view.dpr);
+    prepare_stars(scene, &t, view.dpr, &pal, (cv.w, cv.h), &small, sc);
+    let Scratch { stars, wx, .. } = sc;
     let edge = match &scene.field {
         FieldEdge::Circle { radius_rad } => Some(markers::CircleEdge::new(*radius_rad, &t, view.dpr, &pal)),
         FieldEdge::Polygon { .. } => None,
@@ -341,7 +341,9 @@ fn stamp_stars(cv: &mut raster::Canvas, list: &[PreparedStar], small: &stars::Sm
     let h = cv.h;
     for s in list {
         let clip = (band_start(s.y0 as usize), band_end(s.y1 as usize, h));
-        if small.fits(s.look) {
+        if let Some(at) = s.table {
+            stars::stamp_table(cv, at, s.look.flux, s.colour, clip, small);
+        } else if small.fits(s.look) {
             stars::stamp_small(cv, s.x, s.y, s.look.flux, s.colour, clip, small);
         } else {
             stars::stamp(cv, s.x, s.y, s.look, s.colour, clip, wx);
@@ -395,11 +397,14 @@ struct PreparedStar {
     /// Rows the stamp covers: [y0, y1).
     y0: u32,
     y1: u32,
+    /// Where the base-width weight tables place it, when its rows lie whole
+    /// inside the frame (most stars): drawn by [`stars::stamp_table`].
+    table: Option<stars::TablePlace>,
 }
 
 /// Stars in view with their pixel position and look, ordered by first row
 /// (a counting sort, stable, so the order is deterministic), into `sc.stars`.
-fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, h: usize, sc: &mut Scratch) {
+fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, h): (usize, usize), small: &stars::SmallPsf, sc: &mut Scratch) {
     // Cull against the field: nothing outside it survives the mask.
     let reach = scene.field_reach_rad() * t.px_per_rad + 40.0 * dpr as f64;
     let reach2 = (reach * reach) as f32;
@@ -433,7 +438,8 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, h: u
         let y0 = (raster::floor_i32(y - r).max(0) as usize).min(h - 1);
         let y1 = (raster::floor_i32(y + r) + 1).clamp(1, h as i32) as u32;
         count[y0 + 1] += 1;
-        tmp.push(PreparedStar { x, y, look, colour, y0: y0 as u32, y1 });
+        let table = if small.fits(look) { small.place(x, y, w) } else { None };
+        tmp.push(PreparedStar { x, y, look, colour, y0: y0 as u32, y1, table });
     }
     for i in 0..h {
         count[i + 1] += count[i];

@@ -117,6 +117,66 @@ impl SmallPsf {
     }
 }
 
+/// Where a base-width star's table stamp falls: its first pixel (column,
+/// row; the row may lie above the frame) and the phase of each axis.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub(crate) struct TablePlace {
+    x0: u32,
+    y_first: i32,
+    phx: u8,
+    phy: u8,
+}
+
+impl SmallPsf {
+    /// The table placement of a star centred at (x, y) in a frame `w` pixels
+    /// wide, when its rows run four pixels wide inside the frame (the same
+    /// floors and phases [`stamp_small`] takes); `None` otherwise.
+    #[inline]
+    pub fn place(&self, x: f32, y: f32, w: usize) -> Option<TablePlace> {
+        use super::raster::floor_i32;
+        if !(self.ok && self.nw == 4 && x > -8.0 && y > -8.0 && x < w as f32 + 8.0 && y.abs() < 1e7) {
+            return None;
+        }
+        let (ix, iy) = (floor_i32(x), floor_i32(y));
+        let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
+        let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
+        let x0 = ix + self.off[phx];
+        if x0 < 0 || x0 as usize + 4 > w {
+            return None;
+        }
+        Some(TablePlace { x0: x0 as u32, y_first: iy + self.off[phy], phx: phx as u8, phy: phy as u8 })
+    }
+}
+
+/// Stamps a base-width star placed by [`SmallPsf::place`], rows clipped to
+/// `rows` (within the frame): the bytes [`stamp_small`] writes. Rows whose
+/// light is below [`MIN_LIGHT`] everywhere are drawn too: adding zero light
+/// leaves the bytes as they are, and a row costs less than a mispredicted
+/// branch would.
+#[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
+#[inline]
+pub(crate) fn stamp_table(cv: &mut Canvas, at: TablePlace, flux: f32, colour: [f32; 3], rows: (usize, usize), p: &SmallPsf) {
+    let (phx, phy) = (at.phx as usize % PHASES, at.phy as usize % PHASES);
+    let j0 = (rows.0 as i64 - at.y_first as i64).max(0) as usize;
+    let j1 = ((rows.1.min(cv.h) as i64 - at.y_first as i64).max(0) as usize).min(p.n[phy]);
+    if j0 >= j1 {
+        return;
+    }
+    let luts = cv.luts;
+    let w4 = cv.w * 4;
+    let Ok(wx) = <&[f32; 4]>::try_from(&p.w[phx][..4]) else {
+        return;
+    };
+    let wy = &p.w[phy];
+    let mut at_px = (at.y_first as i64 + j0 as i64) as usize * w4 + at.x0 as usize * 4;
+    for &wyj in &wy[j0..j1] {
+        if let Some(Ok(seg)) = cv.px.get_mut(at_px..at_px + 16).map(<&mut [u8; 16]>::try_from) {
+            add4!(seg, wx, wyj * flux, colour, luts, &cv.bg);
+        }
+        at_px += w4;
+    }
+}
+
 /// Stamps a base-width star from the phase tables (rows clipped to `rows`).
 #[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f32; 3], rows: (usize, usize), p: &SmallPsf) {
@@ -201,8 +261,10 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         prev = next;
     }
     let wxmax = wx.iter().copied().fold(0.0, max_f);
-    // Rows run to whole groups of four when the frame allows (zero weights add nothing).
-    let xe = if x0 + (x1 - x0).div_ceil(4) * 4 <= cv.w { x0 + (x1 - x0).div_ceil(4) * 4 } else { x1 };
+    // A row goes four pixels at a time; a remainder of three is padded to a
+    // fourth when the frame allows (a zero weight adds nothing), while one or
+    // two left over are cheaper drawn one by one than as a group of four.
+    let xe = if (x1 - x0) % 4 == 3 && x1 < cv.w { x1 + 1 } else { x1 };
     wx.resize(xe - x0, 0.0);
     let luts = cv.luts;
     let w4 = cv.w * 4;
