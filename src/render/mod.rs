@@ -228,7 +228,6 @@ struct Scratch {
     stars: Vec<PreparedStar>,
     unsorted: Vec<PreparedStar>,
     count: Vec<u32>,
-    order: Vec<u32>,
     wx: Vec<f32>,
     /// Look and colour of each scene star as last computed, with the inputs
     /// they came from (see [`star_look_memo`]).
@@ -444,18 +443,22 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
     for i in 0..h {
         count[i + 1] += count[i];
     }
-    // order[slot] = index in `tmp`; then one pass copies the stars in order
-    // (drawing reads them in order, so they are best laid out that way).
-    let order = &mut sc.order;
-    order.clear();
-    order.resize(tmp.len(), 0);
-    for (k, p) in tmp.iter().enumerate() {
+    // Each star goes straight to its slot (drawing reads them in order, so
+    // they are best laid out that way). Every slot is written once: the
+    // counts add up to tmp.len().
+    let Some(&first) = tmp.first() else {
+        sc.stars.clear();
+        return;
+    };
+    sc.stars.clear();
+    sc.stars.resize(tmp.len(), first);
+    for p in tmp.iter() {
         let c = &mut count[p.y0 as usize];
-        order[*c as usize] = k as u32;
+        if let Some(slot) = sc.stars.get_mut(*c as usize) {
+            *slot = *p;
+        }
         *c += 1;
     }
-    sc.stars.clear();
-    sc.stars.extend(order.iter().map(|&k| tmp[k as usize]));
 }
 
 fn object_labels(scene: &Scene, t: &ViewTransform, view: &ViewParams) -> Vec<Label> {
