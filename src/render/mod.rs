@@ -292,7 +292,20 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let mut ready_to = |cv: &mut raster::Canvas, to: usize| {
         while ready < to {
             let rows = (ready, (ready + BAND_ROWS).min(h));
-            cv.fill_run(rows.0 * cv.w, rows.1 * cv.w, sky8);
+            match edge.as_ref() {
+                // The sky only where the field mask leaves pixels to show: it
+                // fills everything outside each row's span with the outside
+                // colour, whatever the pixel held (stars and glows drawn there
+                // first are covered).
+                Some(e) => {
+                    for y in rows.0..rows.1 {
+                        if let Some((xl, xr)) = e.span(y, cv.w) {
+                            cv.fill_span(y, xl, xr, sky8);
+                        }
+                    }
+                }
+                None => cv.fill_run(rows.0 * cv.w, rows.1 * cv.w, sky8),
+            }
             shapes::draw_dsos(cv, scene, &t, &pal, rows);
             ready = rows.1;
         }
