@@ -2,7 +2,7 @@
 //! and the markers: north and east, the zenith, and the drift direction with
 //! the time the target takes to leave an undriven field.
 
-use super::lanes::{rim1, rim4, RimShade};
+use super::lanes::{full_blend_is_fill, rim1, rim4, RimShade};
 use super::raster::Canvas;
 use super::{background, Label, Palette, ViewTransform};
 use crate::scene::{FieldEdge, LabelKind, Scene};
@@ -22,9 +22,10 @@ const DRIFT: [f32; 3] = [0.95, 0.80, 0.35];
 pub(crate) struct CircleEdge {
     cx: f32,
     cy: f32,
-    r: f32,
     ro: f32,
     ri: f32,
+    /// The per-pixel shading, made once a frame (not once a band).
+    shade: RimShade,
 }
 
 /// Keeps the spans clear of pixels whose shading is not a no-op or a fill
@@ -39,8 +40,11 @@ impl CircleEdge {
         // the rim's vanishes and the dark's is 1, which writes the outside
         // colour's bytes whatever the pixel held, when `full_dark_is_fill`.
         let reach = half_w + 0.5 + EDGE_MARGIN_PX;
-        let ro = if full_dark_is_fill(pal) { r + reach } else { r + half_w + 1.5 };
-        CircleEdge { cx: t.cx as f32, cy: t.cy as f32, r, ro, ri: (r - reach).max(0.0) }
+        let fill = full_dark_is_fill(pal);
+        let ro = if fill { r + reach } else { r + half_w + 1.5 };
+        let (cx, cy) = (t.cx as f32, t.cy as f32);
+        let shade = RimShade::new(cx, r, half_w + 0.5, pal.map(background::OUTSIDE), pal.map(RIM), fill, super::raster::luts());
+        CircleEdge { cx, cy, ro, ri: (r - reach).max(0.0), shade }
     }
 
     /// Pixels [xl, xr) of row y lie within `ro` of the centre; `None`: none do.
@@ -66,14 +70,7 @@ fn rim_half_width(dpr: f32) -> f32 {
 fn full_dark_is_fill(pal: &Palette) -> bool {
     use std::sync::OnceLock;
     static CHECK: [OnceLock<bool>; 2] = [OnceLock::new(), OnceLock::new()];
-    *CHECK[pal.night as usize].get_or_init(|| {
-        let out = pal.map(background::OUTSIDE);
-        let l = super::raster::luts();
-        (0..3).all(|k| {
-            let want = super::raster::enc(&l.l2s, out[k]);
-            l.s2l.iter().all(|&v| super::raster::enc(&l.l2s, v + (out[k] - v) * 1.0) == want)
-        })
-    })
+    *CHECK[pal.night as usize].get_or_init(|| full_blend_is_fill(pal.map(background::OUTSIDE), super::raster::luts()))
 }
 
 /// Darkens everything outside the field and draws its rim, anti-aliased.
@@ -97,8 +94,7 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
                 }
             };
             let (cx, cy, ri) = (e.cx, e.cy, e.ri);
-            let g = RimShade { cx, r: e.r, hw5: half_w + 0.5, out, rim };
-            let luts = cv.luts;
+            let (g, luts, bg) = (e.shade, cv.luts, cv.bg);
             // The outside runs from the end of one row's span to the start of
             // the next row's: filled as one run (fewer, longer fills).
             let w = cv.w;
@@ -127,7 +123,7 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
                     while x < b {
                         if x + 4 <= limit {
                             if let Ok(p) = <&mut [u8; 16]>::try_from(&mut cv.px[row + x * 4..row + x * 4 + 16]) {
-                                rim4!(p, x, dy, &g, luts);
+                                rim4!(p, x, dy, &g, luts, &bg);
                             }
                             x += 4;
                         } else {

@@ -9,6 +9,12 @@ const L2S_N: usize = 4096;
 pub(crate) struct Luts {
     pub s2l: [f32; 256],
     pub l2s: [u8; L2S_N],
+    /// `s2l[l2s[i]]`: a quantised light index straight to the light of the
+    /// byte it encodes to, for a blend whose byte is blended again before it
+    /// is stored (the field edge's dark, then its rim): one lookup instead of
+    /// two dependent ones. 16 KB, beside the 5 KB of the other two, still
+    /// well inside a first-level data cache.
+    pub q2l: [f32; L2S_N],
 }
 
 /// sRGB decode (IEC 61966-2-1).
@@ -41,7 +47,11 @@ pub(crate) fn luts() -> &'static Luts {
             let l = i as f32 / (L2S_N - 1) as f32;
             *v = (linear_to_srgb(l) * 255.0 + 0.5).clamp(0.0, 255.0) as u8;
         }
-        Luts { s2l, l2s }
+        let mut q2l = [0.0f32; L2S_N];
+        for (q, &b) in q2l.iter_mut().zip(l2s.iter()) {
+            *q = s2l[b as usize];
+        }
+        Luts { s2l, l2s, q2l }
     })
 }
 
