@@ -163,8 +163,7 @@ pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3],
 ///   one lookup (`Luts::q2l`), as the byte itself is not stored.
 ///
 /// Four pixels still holding the frame's background decode to its light
-/// without table reads. The three bytes of each pixel are put together with
-/// its alpha and the group written by one 16-byte store.
+/// without table reads.
 #[derive(Clone, Copy, Debug)]
 pub(crate) struct RimShade {
     /// Edge centre x and radius, px.
@@ -200,20 +199,25 @@ pub(crate) fn full_blend_is_fill(c: [f32; 3], luts: &Luts) -> bool {
     })
 }
 
-/// Bits of a group's four RGBA pixels (little-endian, as both targets are)
-/// that the edge leaves alone: the alpha bytes.
-pub(crate) const ALPHA4: u128 = 0xff00_0000_ff00_0000_ff00_0000_ff00_0000;
-
 /// Shades pixels x..x+4 of a row whose centre lies `dy` below the edge
 /// centre (`p` holds their 16 bytes); `bg` is the frame's background.
 #[cfg(target_arch = "x86_64")]
 #[inline(always)]
 pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &Luts, bg: &Background) {
     use core::arch::x86_64::*;
+    // Columns go to floats as 32-bit integers, four by one instruction (the
+    // same value, so the same float, as `x as f32`); wider frames, which no
+    // buffer holds in practice, go one pixel at a time.
+    if x > (i32::MAX - 3) as usize {
+        for (j, p) in p.chunks_exact_mut(4).enumerate() {
+            rim1(p, x + j, dy, g, luts);
+        }
+        return;
+    }
     let (s2l, l2s, q2l) = (&luts.s2l, &luts.l2s, &luts.q2l);
     // SAFETY: SSE2 is part of the x86-64 baseline; `idx` is 4 u32 in bounds.
     unsafe {
-        let xf = _mm_setr_ps(x as f32, (x + 1) as f32, (x + 2) as f32, (x + 3) as f32);
+        let xf = _mm_cvtepi32_ps(_mm_add_epi32(_mm_set1_epi32(x as i32), _mm_setr_epi32(0, 1, 2, 3)));
         let dx = _mm_sub_ps(_mm_add_ps(xf, _mm_set1_ps(0.5)), _mm_set1_ps(g.cx));
         let d = _mm_sub_ps(_mm_sqrt_ps(_mm_add_ps(_mm_mul_ps(dx, dx), _mm_set1_ps(dy * dy))), _mm_set1_ps(g.r));
         let (zero, one) = (_mm_setzero_ps(), _mm_set1_ps(1.0));
@@ -224,22 +228,21 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
         if no_dark && _mm_movemask_ps(_mm_cmpeq_ps(a2, zero)) == 15 {
             return;
         }
-        let all_dark = g.fill && _mm_movemask_ps(_mm_cmpeq_ps(a1, one)) == 15;
-        // The quantised index of light v + (c − v)·a, four lanes.
+        // The quantised index of light v + (c − v)·a, four lanes (through
+        // memory: fewer instructions than taking the lanes out one by one).
         let idx = |v: __m128, c: f32, a: __m128| -> [u32; 4] {
             let lin = _mm_add_ps(v, _mm_mul_ps(_mm_sub_ps(_mm_set1_ps(c), v), a));
             let lin = _mm_min_ps(_mm_max_ps(lin, zero), one);
             let q = _mm_add_ps(_mm_mul_ps(lin, _mm_set1_ps(4095.0)), _mm_set1_ps(8_388_608.0));
             let mut idx = [0u32; 4];
             _mm_storeu_si128(idx.as_mut_ptr() as *mut __m128i, _mm_castps_si128(q));
-            idx.map(|i| i & 4095)
+            idx
         };
-        let word = u128::from_le_bytes(*p);
         // Each channel's light after the dark's blend and its quantisation.
-        let v1: [__m128; 3] = if all_dark {
+        let v1: [__m128; 3] = if g.fill && _mm_movemask_ps(_mm_cmpeq_ps(a1, one)) == 15 {
             g.out_lin.map(|c| _mm_set1_ps(c))
         } else {
-            let v = if word == bg.word4 {
+            let v = if u128::from_ne_bytes(*p) == bg.word4 {
                 bg.lin.map(|c| _mm_set1_ps(c))
             } else {
                 [0, 1, 2].map(|ch| _mm_setr_ps(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]))
@@ -248,23 +251,24 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
                 v
             } else {
                 [0, 1, 2].map(|ch| {
-                    let i = idx(v[ch], g.out[ch], a1);
-                    _mm_setr_ps(q2l[i[0] as usize], q2l[i[1] as usize], q2l[i[2] as usize], q2l[i[3] as usize])
+                    let i = idx(v[ch], g.out[ch], a1).map(|i| (i & 4095) as usize);
+                    _mm_setr_ps(q2l[i[0]], q2l[i[1]], q2l[i[2]], q2l[i[3]])
                 })
             }
         };
-        let mut px = word & ALPHA4;
+        // Bytes stored one by one: a store each, where putting them together
+        // for one wide store takes a shift and an or each as well.
         for (ch, v1) in v1.iter().enumerate() {
-            let i = idx(*v1, g.rim[ch], a2);
-            for (j, i) in i.iter().enumerate() {
-                px |= (l2s[*i as usize] as u128) << (32 * j + 8 * ch);
+            for (j, i) in idx(*v1, g.rim[ch], a2).iter().enumerate() {
+                p[4 * j + ch] = l2s[(i & 4095) as usize];
             }
         }
-        *p = px.to_le_bytes();
     }
 }
 
-/// wasm: expanded in place by [`rim4!`] inside the (simd128) field mask.
+/// wasm: expanded in place by [`rim4!`] inside the (simd128) field mask,
+/// as [`rim4_fn`] (lanes are taken out one by one here: one instruction
+/// each in wasm).
 #[cfg(target_arch = "wasm32")]
 macro_rules! rim4 {
     ($p:expr, $x:expr, $dy:expr, $g:expr, $luts:expr, $bg:expr) => {{
@@ -275,57 +279,58 @@ macro_rules! rim4 {
         let luts: &$crate::render::raster::Luts = $luts;
         let bg: &$crate::render::lanes::Background = $bg;
         let (s2l, l2s, q2l) = (&luts.s2l, &luts.l2s, &luts.q2l);
-        let xf = f32x4(x as f32, (x + 1) as f32, (x + 2) as f32, (x + 3) as f32);
-        let dx = f32x4_sub(f32x4_add(xf, f32x4_splat(0.5)), f32x4_splat(g.cx));
-        let d = f32x4_sub(f32x4_sqrt(f32x4_add(f32x4_mul(dx, dx), f32x4_splat(dy * dy))), f32x4_splat(g.r));
-        let (zero, one) = (f32x4_splat(0.0), f32x4_splat(1.0));
-        let a1 = f32x4_pmin(f32x4_pmax(f32x4_add(d, f32x4_splat(0.5)), zero), one);
-        let a2 = f32x4_pmin(f32x4_pmax(f32x4_sub(f32x4_splat(g.hw5), f32x4_abs(d)), zero), one);
-        let no_dark = i32x4_all_true(f32x4_eq(a1, zero));
-        // Both coverages 0 everywhere: the group stays as it is.
-        if !(no_dark && i32x4_all_true(f32x4_eq(a2, zero))) {
-            let all_dark = g.fill && i32x4_all_true(f32x4_eq(a1, one));
-            // The quantised index of light v + (c − v)·a, four lanes.
-            let idx = |v: v128, c: f32, a: v128| -> v128 {
-                let lin = f32x4_add(v, f32x4_mul(f32x4_sub(f32x4_splat(c), v), a));
-                let lin = f32x4_pmin(f32x4_pmax(lin, zero), one);
-                let q = f32x4_add(f32x4_mul(lin, f32x4_splat(4095.0)), f32x4_splat(8_388_608.0));
-                v128_and(q, u32x4_splat(4095))
-            };
-            let word = u128::from_le_bytes(*p);
-            // Arrays written out (not `array::map`), so that nothing here
-            // rests on a generic function being inlined into the simd128 mask.
-            let splat3 = |c: [f32; 3]| [f32x4_splat(c[0]), f32x4_splat(c[1]), f32x4_splat(c[2])];
-            let decode = |ch: usize| f32x4(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]);
-            let dark = |v: v128, ch: usize| {
-                let i = idx(v, g.out[ch], a1);
-                f32x4(
-                    q2l[u32x4_extract_lane::<0>(i) as usize & 4095],
-                    q2l[u32x4_extract_lane::<1>(i) as usize & 4095],
-                    q2l[u32x4_extract_lane::<2>(i) as usize & 4095],
-                    q2l[u32x4_extract_lane::<3>(i) as usize & 4095],
-                )
-            };
-            let v1: [v128; 3] = if all_dark {
-                splat3(g.out_lin)
-            } else {
-                let v = if word == bg.word4 { splat3(bg.lin) } else { [decode(0), decode(1), decode(2)] };
-                if no_dark {
-                    v
-                } else {
-                    [dark(v[0], 0), dark(v[1], 1), dark(v[2], 2)]
-                }
-            };
-            // Two halves of the group's 16 bytes, alpha kept.
-            let keep = word & $crate::render::lanes::ALPHA4;
-            let (mut lo, mut hi) = (keep as u64, (keep >> 64) as u64);
-            for (ch, v1) in v1.iter().enumerate() {
-                let i = idx(*v1, g.rim[ch], a2);
-                let s = 8 * ch;
-                lo |= (l2s[u32x4_extract_lane::<0>(i) as usize & 4095] as u64) << s | (l2s[u32x4_extract_lane::<1>(i) as usize & 4095] as u64) << (32 + s);
-                hi |= (l2s[u32x4_extract_lane::<2>(i) as usize & 4095] as u64) << s | (l2s[u32x4_extract_lane::<3>(i) as usize & 4095] as u64) << (32 + s);
+        if x > (i32::MAX - 3) as usize {
+            for (j, p) in p.chunks_exact_mut(4).enumerate() {
+                $crate::render::lanes::rim1(p, x + j, dy, g, luts);
             }
-            *p = (lo as u128 | (hi as u128) << 64).to_le_bytes();
+        } else {
+            let xf = f32x4_convert_i32x4(i32x4_add(i32x4_splat(x as i32), i32x4(0, 1, 2, 3)));
+            let dx = f32x4_sub(f32x4_add(xf, f32x4_splat(0.5)), f32x4_splat(g.cx));
+            let d = f32x4_sub(f32x4_sqrt(f32x4_add(f32x4_mul(dx, dx), f32x4_splat(dy * dy))), f32x4_splat(g.r));
+            let (zero, one) = (f32x4_splat(0.0), f32x4_splat(1.0));
+            let a1 = f32x4_pmin(f32x4_pmax(f32x4_add(d, f32x4_splat(0.5)), zero), one);
+            let a2 = f32x4_pmin(f32x4_pmax(f32x4_sub(f32x4_splat(g.hw5), f32x4_abs(d)), zero), one);
+            let no_dark = i32x4_all_true(f32x4_eq(a1, zero));
+            // Both coverages 0 everywhere: the group stays as it is.
+            if !(no_dark && i32x4_all_true(f32x4_eq(a2, zero))) {
+                // The quantised light v + (c − v)·a, four lanes; its bits
+                // hold the table index in the low 12.
+                let idx = |v: v128, c: f32, a: v128| -> v128 {
+                    let lin = f32x4_add(v, f32x4_mul(f32x4_sub(f32x4_splat(c), v), a));
+                    let lin = f32x4_pmin(f32x4_pmax(lin, zero), one);
+                    f32x4_add(f32x4_mul(lin, f32x4_splat(4095.0)), f32x4_splat(8_388_608.0))
+                };
+                // Arrays written out (not `array::map`), so that nothing here
+                // rests on a generic function being inlined into the simd128 mask.
+                let splat3 = |c: [f32; 3]| [f32x4_splat(c[0]), f32x4_splat(c[1]), f32x4_splat(c[2])];
+                let decode = |ch: usize| f32x4(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]);
+                let dark = |v: v128, ch: usize| {
+                    let i = idx(v, g.out[ch], a1);
+                    f32x4(
+                        q2l[u32x4_extract_lane::<0>(i) as usize & 4095],
+                        q2l[u32x4_extract_lane::<1>(i) as usize & 4095],
+                        q2l[u32x4_extract_lane::<2>(i) as usize & 4095],
+                        q2l[u32x4_extract_lane::<3>(i) as usize & 4095],
+                    )
+                };
+                let v1: [v128; 3] = if g.fill && i32x4_all_true(f32x4_eq(a1, one)) {
+                    splat3(g.out_lin)
+                } else {
+                    let v = if u128::from_ne_bytes(*p) == bg.word4 { splat3(bg.lin) } else { [decode(0), decode(1), decode(2)] };
+                    if no_dark {
+                        v
+                    } else {
+                        [dark(v[0], 0), dark(v[1], 1), dark(v[2], 2)]
+                    }
+                };
+                for (ch, v1) in v1.iter().enumerate() {
+                    let i = idx(*v1, g.rim[ch], a2);
+                    p[ch] = l2s[u32x4_extract_lane::<0>(i) as usize & 4095];
+                    p[4 + ch] = l2s[u32x4_extract_lane::<1>(i) as usize & 4095];
+                    p[8 + ch] = l2s[u32x4_extract_lane::<2>(i) as usize & 4095];
+                    p[12 + ch] = l2s[u32x4_extract_lane::<3>(i) as usize & 4095];
+                }
+            }
         }
     }};
 }

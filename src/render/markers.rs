@@ -165,15 +165,36 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
     }
 }
 
+/// `x − 0.5` held within ±2²⁴ (NaN to the low end): there every float has
+/// its floor and ceiling in i32, and pixel indices beyond 2²⁴ lie past any
+/// frame's edge (frames are at most `MAX_SIDE_PX` wide), so the spans below
+/// are those of the float floor and ceiling. Integer arithmetic: these run
+/// four times a row, and a float floor plus a saturating float → usize cast
+/// took about 30 instructions each.
 #[inline]
-fn span_start(x: f32) -> usize {
-    // Float → integer casts saturate: below 0 (and NaN) give 0.
-    super::raster::ceil_f(x - 0.5) as usize
+fn centre_offset(x: f32) -> f32 {
+    const LIM: f32 = 16_777_216.0;
+    let v = x - 0.5;
+    let v = if v > -LIM { v } else { -LIM };
+    if v < LIM { v } else { LIM }
 }
 
+/// The first pixel whose centre is at or right of `x`, or 0.
+#[inline]
+fn span_start(x: f32) -> usize {
+    let v = centre_offset(x);
+    let t = v as i32;
+    // t truncates towards zero: one up when v lies above it.
+    (t + ((t as f32) < v) as i32).max(0) as usize
+}
+
+/// One past the last pixel whose centre is at or left of `x`, at most `w`.
 #[inline]
 fn span_end(x: f32, w: usize) -> usize {
-    ((super::raster::floor_f(x - 0.5) + 1.0) as usize).min(w)
+    let v = centre_offset(x);
+    let t = v as i32;
+    // floor(v) + 1: t is one too high when v lies below it.
+    ((t + 1 - ((t as f32) > v) as i32).max(0) as usize).min(w)
 }
 
 /// The dark and the rim over one pixel at signed distance `d` from the edge.
@@ -287,6 +308,31 @@ pub(crate) fn draw_markers(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dp
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The integer span ends are the float ones (float ceiling and floor,
+    /// saturating casts) for every x whose span end is a pixel index below
+    /// 2²⁴, and both are at least that beyond; NaN and infinities included.
+    #[test]
+    fn span_ends_match_the_float_forms() {
+        use super::super::raster::{ceil_f, floor_f};
+        let (old_start, old_end) = (|x: f32| ceil_f(x - 0.5) as usize, |x: f32, w: usize| ((floor_f(x - 0.5) + 1.0) as usize).min(w));
+        let mut xs = vec![f32::NAN, f32::INFINITY, f32::NEG_INFINITY, 0.0, -0.0, 0.5, -0.5, 1e30, -1e30, 16_777_216.5, 16_777_217.0, -16_777_216.0, 3e9, -3e9];
+        let mut x = -20_000.0f32;
+        while x < 20_000.0 {
+            // Steps that hit halves, integers and values between.
+            xs.extend([x, x + 0.5, x - 0.5, f32::from_bits(x.to_bits() + 1), f32::from_bits(x.to_bits().wrapping_sub(1))]);
+            x += 0.731;
+        }
+        let big = 1usize << 24;
+        for &x in &xs {
+            for w in [1usize, 640, 8192, 1 << 30] {
+                let (a, b) = (span_start(x), old_start(x));
+                assert!(a == b || (a >= big && b >= big), "start {x}: {a} vs {b}");
+                let (a, b) = (span_end(x, w), old_end(x, w));
+                assert!(a == b || (a >= big && b >= big), "end {x} w {w}: {a} vs {b}");
+            }
+        }
+    }
 
     /// With the outside colour of both palettes, a full blend towards it gives
     /// its bytes from any pixel, so the mask may fill past the rim instead of
