@@ -150,7 +150,20 @@ pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3],
 /// The field edge over four pixels of one row: the dark outside the edge,
 /// then the rim, each blended in linear light with its coverage and
 /// quantised to bytes in between, exactly as [`rim1`] does one pixel (same
-/// operations per lane; the square root is IEEE's).
+/// operations per lane; the square root is IEEE's). Work that cannot change
+/// a byte is left out, group by group:
+/// - both coverages 0 in every lane: nothing changes (every byte round-trips
+///   through the tables), the group is left as it is;
+/// - the dark's coverage 0 in every lane: its blend gives each pixel's own
+///   bytes back, so the rim is blended onto the decoded pixel directly;
+/// - the dark's coverage 1 in every lane, where that is known to give the
+///   outside colour's bytes from any byte (`fill`): the rim is blended onto
+///   that colour's light, without reading the pixels;
+/// - otherwise the dark's quantised light goes to the light of its byte in
+///   one lookup (`Luts::q2l`), as the byte itself is not stored.
+///
+/// Four pixels still holding the frame's background decode to its light
+/// without table reads.
 #[derive(Clone, Copy, Debug)]
 pub(crate) struct RimShade {
     /// Edge centre x and radius, px.
@@ -160,77 +173,163 @@ pub(crate) struct RimShade {
     pub hw5: f32,
     pub out: [f32; 3],
     pub rim: [f32; 3],
+    /// The outside colour's bytes decoded: the light of any pixel after a
+    /// full blend to `out`, when `fill`.
+    pub out_lin: [f32; 3],
+    /// Whether a full blend to `out` gives the outside colour's bytes from
+    /// every byte ([`full_blend_is_fill`]).
+    pub fill: bool,
+}
+
+impl RimShade {
+    /// `fill`: [`full_blend_is_fill`] of `out` (the caller may have it at hand).
+    pub fn new(cx: f32, r: f32, hw5: f32, out: [f32; 3], rim: [f32; 3], fill: bool, luts: &Luts) -> RimShade {
+        let out_lin = [0, 1, 2].map(|k| luts.s2l[super::raster::enc(&luts.l2s, out[k]) as usize]);
+        RimShade { cx, r, hw5, out, rim, out_lin, fill }
+    }
+}
+
+/// Whether blending any pixel fully (coverage 1) to the linear colour `c`
+/// gives exactly `c`'s bytes, channel by channel (checked over every byte).
+pub(crate) fn full_blend_is_fill(c: [f32; 3], luts: &Luts) -> bool {
+    use super::raster::enc;
+    (0..3).all(|k| {
+        let want = enc(&luts.l2s, c[k]);
+        luts.s2l.iter().all(|&v| enc(&luts.l2s, v + (c[k] - v) * 1.0) == want)
+    })
 }
 
 /// Shades pixels x..x+4 of a row whose centre lies `dy` below the edge
-/// centre (`p` holds their 16 bytes).
+/// centre (`p` holds their 16 bytes); `bg` is the frame's background.
 #[cfg(target_arch = "x86_64")]
 #[inline(always)]
-pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &Luts) {
+pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &Luts, bg: &Background) {
     use core::arch::x86_64::*;
-    let (s2l, l2s) = (&luts.s2l, &luts.l2s);
+    // Columns go to floats as 32-bit integers, four by one instruction (the
+    // same value, so the same float, as `x as f32`); wider frames, which no
+    // buffer holds in practice, go one pixel at a time.
+    if x > (i32::MAX - 3) as usize {
+        for (j, p) in p.chunks_exact_mut(4).enumerate() {
+            rim1(p, x + j, dy, g, luts);
+        }
+        return;
+    }
+    let (s2l, l2s, q2l) = (&luts.s2l, &luts.l2s, &luts.q2l);
     // SAFETY: SSE2 is part of the x86-64 baseline; `idx` is 4 u32 in bounds.
     unsafe {
-        let xf = _mm_setr_ps(x as f32, (x + 1) as f32, (x + 2) as f32, (x + 3) as f32);
+        let xf = _mm_cvtepi32_ps(_mm_add_epi32(_mm_set1_epi32(x as i32), _mm_setr_epi32(0, 1, 2, 3)));
         let dx = _mm_sub_ps(_mm_add_ps(xf, _mm_set1_ps(0.5)), _mm_set1_ps(g.cx));
         let d = _mm_sub_ps(_mm_sqrt_ps(_mm_add_ps(_mm_mul_ps(dx, dx), _mm_set1_ps(dy * dy))), _mm_set1_ps(g.r));
         let (zero, one) = (_mm_setzero_ps(), _mm_set1_ps(1.0));
         let a1 = _mm_min_ps(_mm_max_ps(_mm_add_ps(d, _mm_set1_ps(0.5)), zero), one);
         let ad = _mm_andnot_ps(_mm_set1_ps(-0.0), d);
         let a2 = _mm_min_ps(_mm_max_ps(_mm_sub_ps(_mm_set1_ps(g.hw5), ad), zero), one);
-        let enc = |lin: __m128| -> [u32; 4] {
+        let no_dark = _mm_movemask_ps(_mm_cmpeq_ps(a1, zero)) == 15;
+        if no_dark && _mm_movemask_ps(_mm_cmpeq_ps(a2, zero)) == 15 {
+            return;
+        }
+        // The quantised index of light v + (c − v)·a, four lanes (through
+        // memory: fewer instructions than taking the lanes out one by one).
+        let idx = |v: __m128, c: f32, a: __m128| -> [u32; 4] {
+            let lin = _mm_add_ps(v, _mm_mul_ps(_mm_sub_ps(_mm_set1_ps(c), v), a));
             let lin = _mm_min_ps(_mm_max_ps(lin, zero), one);
             let q = _mm_add_ps(_mm_mul_ps(lin, _mm_set1_ps(4095.0)), _mm_set1_ps(8_388_608.0));
             let mut idx = [0u32; 4];
             _mm_storeu_si128(idx.as_mut_ptr() as *mut __m128i, _mm_castps_si128(q));
-            idx.map(|i| l2s[(i & 4095) as usize] as u32)
+            idx
         };
-        for ch in 0..3 {
-            let v = _mm_setr_ps(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]);
-            let b1 = enc(_mm_add_ps(v, _mm_mul_ps(_mm_sub_ps(_mm_set1_ps(g.out[ch]), v), a1)));
-            let v1 = _mm_setr_ps(s2l[b1[0] as usize], s2l[b1[1] as usize], s2l[b1[2] as usize], s2l[b1[3] as usize]);
-            let b2 = enc(_mm_add_ps(v1, _mm_mul_ps(_mm_sub_ps(_mm_set1_ps(g.rim[ch]), v1), a2)));
-            for (j, b) in b2.iter().enumerate() {
-                p[4 * j + ch] = *b as u8;
+        // Each channel's light after the dark's blend and its quantisation.
+        let v1: [__m128; 3] = if g.fill && _mm_movemask_ps(_mm_cmpeq_ps(a1, one)) == 15 {
+            g.out_lin.map(|c| _mm_set1_ps(c))
+        } else {
+            let v = if u128::from_ne_bytes(*p) == bg.word4 {
+                bg.lin.map(|c| _mm_set1_ps(c))
+            } else {
+                [0, 1, 2].map(|ch| _mm_setr_ps(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]))
+            };
+            if no_dark {
+                v
+            } else {
+                [0, 1, 2].map(|ch| {
+                    let i = idx(v[ch], g.out[ch], a1).map(|i| (i & 4095) as usize);
+                    _mm_setr_ps(q2l[i[0]], q2l[i[1]], q2l[i[2]], q2l[i[3]])
+                })
+            }
+        };
+        // Bytes stored one by one: a store each, where putting them together
+        // for one wide store takes a shift and an or each as well.
+        for (ch, v1) in v1.iter().enumerate() {
+            for (j, i) in idx(*v1, g.rim[ch], a2).iter().enumerate() {
+                p[4 * j + ch] = l2s[(i & 4095) as usize];
             }
         }
     }
 }
 
-/// wasm: expanded in place by [`rim4!`] inside the (simd128) field mask.
+/// wasm: expanded in place by [`rim4!`] inside the (simd128) field mask,
+/// as [`rim4_fn`] (lanes are taken out one by one here: one instruction
+/// each in wasm).
 #[cfg(target_arch = "wasm32")]
 macro_rules! rim4 {
-    ($p:expr, $x:expr, $dy:expr, $g:expr, $luts:expr) => {{
+    ($p:expr, $x:expr, $dy:expr, $g:expr, $luts:expr, $bg:expr) => {{
         use core::arch::wasm32::*;
         let p: &mut [u8; 16] = $p;
         let (x, dy): (usize, f32) = ($x, $dy);
         let g: &$crate::render::lanes::RimShade = $g;
         let luts: &$crate::render::raster::Luts = $luts;
-        let (s2l, l2s) = (&luts.s2l, &luts.l2s);
-        let xf = f32x4(x as f32, (x + 1) as f32, (x + 2) as f32, (x + 3) as f32);
-        let dx = f32x4_sub(f32x4_add(xf, f32x4_splat(0.5)), f32x4_splat(g.cx));
-        let d = f32x4_sub(f32x4_sqrt(f32x4_add(f32x4_mul(dx, dx), f32x4_splat(dy * dy))), f32x4_splat(g.r));
-        let (zero, one) = (f32x4_splat(0.0), f32x4_splat(1.0));
-        let a1 = f32x4_pmin(f32x4_pmax(f32x4_add(d, f32x4_splat(0.5)), zero), one);
-        let a2 = f32x4_pmin(f32x4_pmax(f32x4_sub(f32x4_splat(g.hw5), f32x4_abs(d)), zero), one);
-        let enc = |lin: v128| -> [u32; 4] {
-            let lin = f32x4_pmin(f32x4_pmax(lin, zero), one);
-            let q = f32x4_add(f32x4_mul(lin, f32x4_splat(4095.0)), f32x4_splat(8_388_608.0));
-            let i = v128_and(q, u32x4_splat(4095));
-            [
-                l2s[u32x4_extract_lane::<0>(i) as usize & 4095] as u32,
-                l2s[u32x4_extract_lane::<1>(i) as usize & 4095] as u32,
-                l2s[u32x4_extract_lane::<2>(i) as usize & 4095] as u32,
-                l2s[u32x4_extract_lane::<3>(i) as usize & 4095] as u32,
-            ]
-        };
-        for ch in 0..3 {
-            let v = f32x4(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]);
-            let b1 = enc(f32x4_add(v, f32x4_mul(f32x4_sub(f32x4_splat(g.out[ch]), v), a1)));
-            let v1 = f32x4(s2l[b1[0] as usize], s2l[b1[1] as usize], s2l[b1[2] as usize], s2l[b1[3] as usize]);
-            let b2 = enc(f32x4_add(v1, f32x4_mul(f32x4_sub(f32x4_splat(g.rim[ch]), v1), a2)));
-            for (j, b) in b2.iter().enumerate() {
-                p[4 * j + ch] = *b as u8;
+        let bg: &$crate::render::lanes::Background = $bg;
+        let (s2l, l2s, q2l) = (&luts.s2l, &luts.l2s, &luts.q2l);
+        if x > (i32::MAX - 3) as usize {
+            for (j, p) in p.chunks_exact_mut(4).enumerate() {
+                $crate::render::lanes::rim1(p, x + j, dy, g, luts);
+            }
+        } else {
+            let xf = f32x4_convert_i32x4(i32x4_add(i32x4_splat(x as i32), i32x4(0, 1, 2, 3)));
+            let dx = f32x4_sub(f32x4_add(xf, f32x4_splat(0.5)), f32x4_splat(g.cx));
+            let d = f32x4_sub(f32x4_sqrt(f32x4_add(f32x4_mul(dx, dx), f32x4_splat(dy * dy))), f32x4_splat(g.r));
+            let (zero, one) = (f32x4_splat(0.0), f32x4_splat(1.0));
+            let a1 = f32x4_pmin(f32x4_pmax(f32x4_add(d, f32x4_splat(0.5)), zero), one);
+            let a2 = f32x4_pmin(f32x4_pmax(f32x4_sub(f32x4_splat(g.hw5), f32x4_abs(d)), zero), one);
+            let no_dark = i32x4_all_true(f32x4_eq(a1, zero));
+            // Both coverages 0 everywhere: the group stays as it is.
+            if !(no_dark && i32x4_all_true(f32x4_eq(a2, zero))) {
+                // The quantised light v + (c − v)·a, four lanes; its bits
+                // hold the table index in the low 12.
+                let idx = |v: v128, c: f32, a: v128| -> v128 {
+                    let lin = f32x4_add(v, f32x4_mul(f32x4_sub(f32x4_splat(c), v), a));
+                    let lin = f32x4_pmin(f32x4_pmax(lin, zero), one);
+                    f32x4_add(f32x4_mul(lin, f32x4_splat(4095.0)), f32x4_splat(8_388_608.0))
+                };
+                // Arrays written out (not `array::map`), so that nothing here
+                // rests on a generic function being inlined into the simd128 mask.
+                let splat3 = |c: [f32; 3]| [f32x4_splat(c[0]), f32x4_splat(c[1]), f32x4_splat(c[2])];
+                let decode = |ch: usize| f32x4(s2l[p[ch] as usize], s2l[p[4 + ch] as usize], s2l[p[8 + ch] as usize], s2l[p[12 + ch] as usize]);
+                let dark = |v: v128, ch: usize| {
+                    let i = idx(v, g.out[ch], a1);
+                    f32x4(
+                        q2l[u32x4_extract_lane::<0>(i) as usize & 4095],
+                        q2l[u32x4_extract_lane::<1>(i) as usize & 4095],
+                        q2l[u32x4_extract_lane::<2>(i) as usize & 4095],
+                        q2l[u32x4_extract_lane::<3>(i) as usize & 4095],
+                    )
+                };
+                let v1: [v128; 3] = if g.fill && i32x4_all_true(f32x4_eq(a1, one)) {
+                    splat3(g.out_lin)
+                } else {
+                    let v = if u128::from_ne_bytes(*p) == bg.word4 { splat3(bg.lin) } else { [decode(0), decode(1), decode(2)] };
+                    if no_dark {
+                        v
+                    } else {
+                        [dark(v[0], 0), dark(v[1], 1), dark(v[2], 2)]
+                    }
+                };
+                for (ch, v1) in v1.iter().enumerate() {
+                    let i = idx(*v1, g.rim[ch], a2);
+                    p[ch] = l2s[u32x4_extract_lane::<0>(i) as usize & 4095];
+                    p[4 + ch] = l2s[u32x4_extract_lane::<1>(i) as usize & 4095];
+                    p[8 + ch] = l2s[u32x4_extract_lane::<2>(i) as usize & 4095];
+                    p[12 + ch] = l2s[u32x4_extract_lane::<3>(i) as usize & 4095];
+                }
             }
         }
     }};
@@ -239,8 +338,8 @@ macro_rules! rim4 {
 /// Elsewhere [`rim4!`] calls [`rim4_fn`].
 #[cfg(not(target_arch = "wasm32"))]
 macro_rules! rim4 {
-    ($p:expr, $x:expr, $dy:expr, $g:expr, $luts:expr) => {
-        $crate::render::lanes::rim4_fn($p, $x, $dy, $g, $luts)
+    ($p:expr, $x:expr, $dy:expr, $g:expr, $luts:expr, $bg:expr) => {
+        $crate::render::lanes::rim4_fn($p, $x, $dy, $g, $luts, $bg)
     };
 }
 pub(crate) use rim4;
@@ -248,7 +347,7 @@ pub(crate) use rim4;
 /// One pixel at a time (targets without SSE2 or simd128).
 #[cfg(not(any(target_arch = "x86_64", target_arch = "wasm32")))]
 #[inline(always)]
-pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &Luts) {
+pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &Luts, _bg: &Background) {
     for (j, p) in p.chunks_exact_mut(4).enumerate() {
         rim1(p, x + j, dy, g, luts);
     }
@@ -299,5 +398,88 @@ mod tests {
             }
         }
         assert!(n > 1000);
+    }
+
+    /// The four-lane field edge writes the bytes of the one-pixel path over
+    /// distances from well inside to well outside the edge, several rim
+    /// widths, outside colours for which a full blend is a fill and one for
+    /// which it is not, on groups holding the background, groups with one
+    /// pixel off it, and groups of varied bytes (alpha included, which is
+    /// kept). Every shortcut of the group path is taken many times.
+    #[test]
+    fn rim_four_lanes_match_one_pixel() {
+        let luts = super::super::raster::luts();
+        let pals = [super::super::Palette { night: false }, super::super::Palette { night: true }];
+        // (outside, rim): the frame's own, then a made-up outside colour.
+        let mut colours: Vec<([f32; 3], [f32; 3])> = pals.iter().map(|p| (p.map(super::super::background::OUTSIDE), p.map([0.30, 0.33, 0.40]))).collect();
+        colours.push(([0.3, 0.55, 0.07], [0.9, 0.2, 0.6]));
+        // And one for which a full blend is not a fill: a light just by a
+        // quantisation half-step, where v + (c − v) may round across it.
+        let mut off_step = (1..4095).flat_map(|k| [-1i32, 0, 1].map(|u| f32::from_bits(((k as f32 + 0.5) / 4095.0).to_bits().wrapping_add_signed(u))));
+        if let Some(c) = off_step.find(|&c| !full_blend_is_fill([c, 0.2, 0.01], luts)) {
+            colours.push(([c, 0.2, 0.01], [0.3, 0.33, 0.4]));
+        }
+        let mut seed = 0x9E37_79B9_7F4A_7C15u64;
+        let mut byte = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed >> 24) as u8
+        };
+        // Groups by what the lanes' coverages are: [no-op, no dark, all dark, mixed].
+        let mut kinds = [0usize; 4];
+        let (mut fills, mut not_fills, mut n) = (0, 0, 0);
+        for &(out, rim) in &colours {
+            let can_fill = full_blend_is_fill(out, luts);
+            if can_fill { fills += 1 } else { not_fills += 1 }
+            for fill in [can_fill, false] {
+                for (cx, r, hw5) in [(37.3f32, 20.0f32, 1.25f32), (40.0, 33.77, 2.0), (36.6, 5.1, 0.875), (38.1, 0.4, 1.25)] {
+                    let g = RimShade::new(cx, r, hw5, out, rim, fill, luts);
+                    let sky = [byte() % 40, byte() % 40, byte() % 60, 255];
+                    let bg = Background::new(sky, luts);
+                    let mut dy = -(r + 3.0) + 0.173;
+                    while dy < r + 3.0 {
+                        for x in 0..80 {
+                            for case in 0..3 {
+                                let mut a = [0u8; 16];
+                                for (j, p) in a.chunks_exact_mut(4).enumerate() {
+                                    let keep = case == 0 || (case == 1 && j != 2);
+                                    let px = if keep { sky } else { [byte(), byte(), byte(), byte()] };
+                                    p.copy_from_slice(&px);
+                                }
+                                let mut b = a;
+                                rim4!(&mut a, x, dy, &g, luts, &bg);
+                                for (j, p) in b.chunks_exact_mut(4).enumerate() {
+                                    rim1(p, x + j, dy, &g, luts);
+                                }
+                                assert_eq!(a, b, "x {x} dy {dy} case {case} out {out:?} fill {fill} r {r} hw5 {hw5}");
+                                n += 1;
+                            }
+                            // What the group path did, from the coverages.
+                            let cov = |j: usize| {
+                                let dx = (x + j) as f32 + 0.5 - cx;
+                                let d = super::super::raster::sqrt(dx * dx + dy * dy) - r;
+                                ((d + 0.5).clamp(0.0, 1.0), (hw5 - d.abs()).clamp(0.0, 1.0))
+                            };
+                            let c: Vec<(f32, f32)> = (0..4).map(cov).collect();
+                            let k = if c.iter().all(|&(a1, a2)| a1 == 0.0 && a2 == 0.0) {
+                                0
+                            } else if c.iter().all(|&(a1, _)| a1 == 0.0) {
+                                1
+                            } else if fill && c.iter().all(|&(a1, _)| a1 == 1.0) {
+                                2
+                            } else {
+                                3
+                            };
+                            kinds[k] += 1;
+                        }
+                        dy += 0.5;
+                    }
+                }
+            }
+        }
+        assert!(fills >= 2 && not_fills >= 1, "fills {fills} not {not_fills}");
+        assert!(kinds.iter().all(|&k| k > 500), "{kinds:?}");
+        assert!(n > 100_000, "{n}");
     }
 }

@@ -2,7 +2,7 @@
 //! and the markers: north and east, the zenith, and the drift direction with
 //! the time the target takes to leave an undriven field.
 
-use super::lanes::{rim1, rim4, RimShade};
+use super::lanes::{full_blend_is_fill, rim1, rim4, RimShade};
 use super::raster::Canvas;
 use super::{background, Label, Palette, ViewTransform};
 use crate::scene::{FieldEdge, LabelKind, Scene};
@@ -22,9 +22,10 @@ const DRIFT: [f32; 3] = [0.95, 0.80, 0.35];
 pub(crate) struct CircleEdge {
     cx: f32,
     cy: f32,
-    r: f32,
     ro: f32,
     ri: f32,
+    /// The per-pixel shading, made once a frame (not once a band).
+    shade: RimShade,
 }
 
 /// Keeps the spans clear of pixels whose shading is not a no-op or a fill
@@ -39,8 +40,11 @@ impl CircleEdge {
         // the rim's vanishes and the dark's is 1, which writes the outside
         // colour's bytes whatever the pixel held, when `full_dark_is_fill`.
         let reach = half_w + 0.5 + EDGE_MARGIN_PX;
-        let ro = if full_dark_is_fill(pal) { r + reach } else { r + half_w + 1.5 };
-        CircleEdge { cx: t.cx as f32, cy: t.cy as f32, r, ro, ri: (r - reach).max(0.0) }
+        let fill = full_dark_is_fill(pal);
+        let ro = if fill { r + reach } else { r + half_w + 1.5 };
+        let (cx, cy) = (t.cx as f32, t.cy as f32);
+        let shade = RimShade::new(cx, r, half_w + 0.5, pal.map(background::OUTSIDE), pal.map(RIM), fill, super::raster::luts());
+        CircleEdge { cx, cy, ro, ri: (r - reach).max(0.0), shade }
     }
 
     /// Pixels [xl, xr) of row y lie within `ro` of the centre; `None`: none do.
@@ -66,14 +70,7 @@ fn rim_half_width(dpr: f32) -> f32 {
 fn full_dark_is_fill(pal: &Palette) -> bool {
     use std::sync::OnceLock;
     static CHECK: [OnceLock<bool>; 2] = [OnceLock::new(), OnceLock::new()];
-    *CHECK[pal.night as usize].get_or_init(|| {
-        let out = pal.map(background::OUTSIDE);
-        let l = super::raster::luts();
-        (0..3).all(|k| {
-            let want = super::raster::enc(&l.l2s, out[k]);
-            l.s2l.iter().all(|&v| super::raster::enc(&l.l2s, v + (out[k] - v) * 1.0) == want)
-        })
-    })
+    *CHECK[pal.night as usize].get_or_init(|| full_blend_is_fill(pal.map(background::OUTSIDE), super::raster::luts()))
 }
 
 /// Darkens everything outside the field and draws its rim, anti-aliased.
@@ -97,8 +94,7 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
                 }
             };
             let (cx, cy, ri) = (e.cx, e.cy, e.ri);
-            let g = RimShade { cx, r: e.r, hw5: half_w + 0.5, out, rim };
-            let luts = cv.luts;
+            let (g, luts, bg) = (e.shade, cv.luts, cv.bg);
             // The outside runs from the end of one row's span to the start of
             // the next row's: filled as one run (fewer, longer fills).
             let w = cv.w;
@@ -127,7 +123,7 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
                     while x < b {
                         if x + 4 <= limit {
                             if let Ok(p) = <&mut [u8; 16]>::try_from(&mut cv.px[row + x * 4..row + x * 4 + 16]) {
-                                rim4!(p, x, dy, &g, luts);
+                                rim4!(p, x, dy, &g, luts, &bg);
                             }
                             x += 4;
                         } else {
@@ -169,15 +165,36 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
     }
 }
 
+/// `x − 0.5` held within ±2²⁴ (NaN to the low end): there every float has
+/// its floor and ceiling in i32, and pixel indices beyond 2²⁴ lie past any
+/// frame's edge (frames are at most `MAX_SIDE_PX` wide), so the spans below
+/// are those of the float floor and ceiling. Integer arithmetic: these run
+/// four times a row, and a float floor plus a saturating float → usize cast
+/// took about 30 instructions each.
 #[inline]
-fn span_start(x: f32) -> usize {
-    // Float → integer casts saturate: below 0 (and NaN) give 0.
-    super::raster::ceil_f(x - 0.5) as usize
+fn centre_offset(x: f32) -> f32 {
+    const LIM: f32 = 16_777_216.0;
+    let v = x - 0.5;
+    let v = if v > -LIM { v } else { -LIM };
+    if v < LIM { v } else { LIM }
 }
 
+/// The first pixel whose centre is at or right of `x`, or 0.
+#[inline]
+fn span_start(x: f32) -> usize {
+    let v = centre_offset(x);
+    let t = v as i32;
+    // t truncates towards zero: one up when v lies above it.
+    (t + ((t as f32) < v) as i32).max(0) as usize
+}
+
+/// One past the last pixel whose centre is at or left of `x`, at most `w`.
 #[inline]
 fn span_end(x: f32, w: usize) -> usize {
-    ((super::raster::floor_f(x - 0.5) + 1.0) as usize).min(w)
+    let v = centre_offset(x);
+    let t = v as i32;
+    // floor(v) + 1: t is one too high when v lies below it.
+    ((t + 1 - ((t as f32) > v) as i32).max(0) as usize).min(w)
 }
 
 /// The dark and the rim over one pixel at signed distance `d` from the edge.
@@ -291,6 +308,31 @@ pub(crate) fn draw_markers(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dp
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The integer span ends are the float ones (float ceiling and floor,
+    /// saturating casts) for every x whose span end is a pixel index below
+    /// 2²⁴, and both are at least that beyond; NaN and infinities included.
+    #[test]
+    fn span_ends_match_the_float_forms() {
+        use super::super::raster::{ceil_f, floor_f};
+        let (old_start, old_end) = (|x: f32| ceil_f(x - 0.5) as usize, |x: f32, w: usize| ((floor_f(x - 0.5) + 1.0) as usize).min(w));
+        let mut xs = vec![f32::NAN, f32::INFINITY, f32::NEG_INFINITY, 0.0, -0.0, 0.5, -0.5, 1e30, -1e30, 16_777_216.5, 16_777_217.0, -16_777_216.0, 3e9, -3e9];
+        let mut x = -20_000.0f32;
+        while x < 20_000.0 {
+            // Steps that hit halves, integers and values between.
+            xs.extend([x, x + 0.5, x - 0.5, f32::from_bits(x.to_bits() + 1), f32::from_bits(x.to_bits().wrapping_sub(1))]);
+            x += 0.731;
+        }
+        let big = 1usize << 24;
+        for &x in &xs {
+            for w in [1usize, 640, 8192, 1 << 30] {
+                let (a, b) = (span_start(x), old_start(x));
+                assert!(a == b || (a >= big && b >= big), "start {x}: {a} vs {b}");
+                let (a, b) = (span_end(x, w), old_end(x, w));
+                assert!(a == b || (a >= big && b >= big), "end {x} w {w}: {a} vs {b}");
+            }
+        }
+    }
 
     /// With the outside colour of both palettes, a full blend towards it gives
     /// its bytes from any pixel, so the mask may fill past the rim instead of
