@@ -229,6 +229,20 @@ pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f
     }
 }
 
+/// The share of a unit Gaussian centred at `c` (width 1/`inv`) falling in
+/// each pixel a..b of one axis: differences of the normal CDF at the pixel
+/// edges, each edge evaluated once.
+#[inline(always)]
+fn pixel_weights(tab: &[f32], c: f32, inv: f32, a: usize, b: usize) -> impl Iterator<Item = f32> + '_ {
+    let mut prev = cdf(tab, (a as f32 - c) * inv);
+    (a..b).map(move |i| {
+        let next = cdf(tab, ((i + 1) as f32 - c) * inv);
+        let w = next - prev;
+        prev = next;
+        w
+    })
+}
+
 /// Stamp reach in pixels from the centre.
 pub fn stamp_radius_px(look: StarLook) -> f32 {
     max_f(STAMP_SIGMAS * look.sigma_px, 1.0)
@@ -253,25 +267,20 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         return;
     }
     let inv = 1.0 / look.sigma_px;
+    let luts = cv.luts;
+    let w4 = cv.w * 4;
     // Stamps up to 16 pixels wide (nearly every star): weights on the stack,
     // padded with zeros to whole groups of four, and every row drawn (a row
-    // or lane without light leaves its bytes as they are).
+    // or lane without light leaves its bytes as they are, and costs less
+    // than a branch that guesses wrong).
     let n4 = (x1 - x0).div_ceil(4) * 4;
     if n4 <= 16 && x0 + n4 <= cv.w {
         let mut wxa = [0.0f32; 16];
-        let mut prev = cdf(tab, (x0 as f32 - x) * inv);
-        for (i, slot) in wxa.iter_mut().enumerate().take(x1 - x0) {
-            let next = cdf(tab, ((x0 + i + 1) as f32 - x) * inv);
-            *slot = next - prev;
-            prev = next;
+        for (slot, w) in wxa.iter_mut().zip(pixel_weights(tab, x, inv, x0, x1)) {
+            *slot = w;
         }
-        let luts = cv.luts;
-        let w4 = cv.w * 4;
-        let mut prev_y = cdf(tab, (y0 as f32 - y) * inv);
-        for yy in y0..y1 {
-            let next = cdf(tab, ((yy + 1) as f32 - y) * inv);
-            let ky = (next - prev_y) * look.flux;
-            prev_y = next;
+        for (yy, wy) in (y0..y1).zip(pixel_weights(tab, y, inv, y0, y1)) {
+            let ky = wy * look.flux;
             let row = yy * w4 + x0 * 4;
             for (seg, w) in cv.px[row..row + 4 * n4].chunks_exact_mut(16).zip(wxa.chunks_exact(4)) {
                 if let (Ok(seg), Ok(w)) = (<&mut [u8; 16]>::try_from(seg), <&[f32; 4]>::try_from(w)) {
@@ -282,25 +291,15 @@ pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f3
         return;
     }
     wx.clear();
-    let mut prev = cdf(tab, (x0 as f32 - x) * inv);
-    for i in x0..x1 {
-        let next = cdf(tab, ((i + 1) as f32 - x) * inv);
-        wx.push(next - prev);
-        prev = next;
-    }
+    wx.extend(pixel_weights(tab, x, inv, x0, x1));
     let wxmax = wx.iter().copied().fold(0.0, max_f);
-    // A row goes four pixels at a time; a remainder of three is padded to a
-    // fourth when the frame allows (a zero weight adds nothing), while one or
-    // two left over are cheaper drawn one by one than as a group of four.
+    // Wider: rows without light are skipped; a remainder of three is padded
+    // to a fourth pixel when the frame allows, one or two left over are
+    // cheaper drawn one by one than as a group of four.
     let xe = if (x1 - x0) % 4 == 3 && x1 < cv.w { x1 + 1 } else { x1 };
     wx.resize(xe - x0, 0.0);
-    let luts = cv.luts;
-    let w4 = cv.w * 4;
-    let mut prev_y = cdf(tab, (y0 as f32 - y) * inv);
-    for yy in y0..y1 {
-        let next = cdf(tab, ((yy + 1) as f32 - y) * inv);
-        let ky = (next - prev_y) * look.flux;
-        prev_y = next;
+    for (yy, wy) in (y0..y1).zip(pixel_weights(tab, y, inv, y0, y1)) {
+        let ky = wy * look.flux;
         if ky < MIN_LIGHT || ky * wxmax < MIN_LIGHT {
             continue;
         }
