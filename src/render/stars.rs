@@ -14,27 +14,29 @@ use super::raster::{max_f, Canvas};
 use std::sync::OnceLock;
 
 const CDF_N: usize = 2048;
+// `cdf` masks its index with CDF_N − 1.
+const _: () = assert!(CDF_N.is_power_of_two());
 const CDF_SPAN: f32 = 4.0; // table covers t in [−4, 4] σ
 // ±2.7 σ holds 99.3 % of the light along each axis; the rest is below one display level.
 const STAMP_SIGMAS: f32 = 2.7;
 
-fn cdf_table() -> &'static [f32] {
-    static T: OnceLock<Vec<f32>> = OnceLock::new();
+fn cdf_table() -> &'static [f32; CDF_N + 1] {
+    static T: OnceLock<[f32; CDF_N + 1]> = OnceLock::new();
     T.get_or_init(|| {
-        (0..=CDF_N)
-            .map(|i| {
-                let t = -CDF_SPAN + 2.0 * CDF_SPAN * i as f32 / CDF_N as f32;
-                0.5 * (1.0 + libm::erff(t * core::f32::consts::FRAC_1_SQRT_2))
-            })
-            .collect()
+        core::array::from_fn(|i| {
+            let t = -CDF_SPAN + 2.0 * CDF_SPAN * i as f32 / CDF_N as f32;
+            0.5 * (1.0 + libm::erff(t * core::f32::consts::FRAC_1_SQRT_2))
+        })
     })
 }
 
-/// Normal CDF Φ(t) from the table (linear interpolation).
+/// Normal CDF Φ(t) from the table (linear interpolation). The clamp keeps
+/// u below CDF_N (a power of two), so the mask never changes i; it only lets
+/// the compiler drop the bounds checks.
 #[inline(always)]
-fn cdf(tab: &[f32], t: f32) -> f32 {
+fn cdf(tab: &[f32; CDF_N + 1], t: f32) -> f32 {
     let u = ((t + CDF_SPAN) * (CDF_N as f32 / (2.0 * CDF_SPAN))).clamp(0.0, CDF_N as f32 - 0.001);
-    let i = u as usize;
+    let i = (u as usize) & (CDF_N - 1);
     let f = u - i as f32;
     tab[i] + (tab[i + 1] - tab[i]) * f
 }
@@ -233,7 +235,7 @@ pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f
 /// each pixel a..b of one axis: differences of the normal CDF at the pixel
 /// edges, each edge evaluated once.
 #[inline(always)]
-fn pixel_weights(tab: &[f32], c: f32, inv: f32, a: usize, b: usize) -> impl Iterator<Item = f32> + '_ {
+fn pixel_weights(tab: &[f32; CDF_N + 1], c: f32, inv: f32, a: usize, b: usize) -> impl Iterator<Item = f32> + '_ {
     let mut prev = cdf(tab, (a as f32 - c) * inv);
     (a..b).map(move |i| {
         let next = cdf(tab, ((i + 1) as f32 - c) * inv);
