@@ -42,7 +42,8 @@ struct DsoSet {
     large: Vec<u32>,
     /// Normalized identifier ("ngc1976", "ic434", "mel22") → object.
     by_id: HashMap<String, u32>,
-    by_messier: HashMap<u8, u32>,
+    /// Messier number → object (None: not in the catalog); a table, not another map type.
+    by_messier: Vec<Option<u32>>,
     /// Normalized common name ("orionnebula") → object.
     by_name: HashMap<String, u32>,
 }
@@ -223,7 +224,7 @@ impl Catalogs {
         self.dso.as_ref()?.by_id.get(normalized).copied()
     }
     pub(crate) fn dso_by_messier(&self, m: u8) -> Option<u32> {
-        self.dso.as_ref()?.by_messier.get(&m).copied()
+        self.dso.as_ref()?.by_messier[m as usize]
     }
     pub(crate) fn dso_by_name(&self, normalized: &str) -> Option<u32> {
         self.dso.as_ref()?.by_name.get(normalized).copied()
@@ -252,7 +253,8 @@ fn build_dso(cat: DsoCatalog) -> DsoSet {
         let o = &cat.objects[i as usize];
         (o.ra_rad, o.dec_rad, 0.0)
     }));
-    let (mut by_id, mut by_messier, mut by_name) = (HashMap::new(), HashMap::new(), HashMap::new());
+    let (mut by_id, mut by_name) = (HashMap::new(), HashMap::new());
+    let mut by_messier: Vec<Option<u32>> = vec![None; 256];
     for (i, o) in cat.objects.iter().enumerate() {
         // First identifier wins for the object's own name; cross-ids do not override it.
         for (k, id) in o.ids.iter().enumerate() {
@@ -264,7 +266,7 @@ fn build_dso(cat: DsoCatalog) -> DsoSet {
             }
         }
         if o.messier > 0 {
-            by_messier.entry(o.messier).or_insert(i as u32);
+            by_messier[o.messier as usize].get_or_insert(i as u32);
         }
         for n in &o.common_names {
             let key = names::normalize(n);
