@@ -53,7 +53,10 @@ struct DsoSet {
 pub struct Catalogs {
     tiers: [Option<Tier>; 3],
     dso: Option<DsoSet>,
-    by_hip: HashMap<u32, u32>,
+    /// (Hipparcos number, star id), sorted by number, one entry per number: the star
+    /// loaded last, as a map's insert would keep. A sorted list, not another map type
+    /// (wasm size).
+    by_hip: Vec<(u32, u32)>,
 }
 
 /// A star id from a tier number and an index into that tier's `stars`.
@@ -93,12 +96,22 @@ impl Catalogs {
         if let Some(t) = STAR_TIERS.iter().position(|&s| s == stem) {
             let cat = decode_stars(bytes)?;
             let index = SkyIndex::build(&cat.stars);
-            self.by_hip.retain(|_, id| (*id >> TIER_SHIFT) as usize != t);
+            self.by_hip.retain(|&(_, id)| (id >> TIER_SHIFT) as usize != t);
             for (i, s) in cat.stars.iter().enumerate() {
                 if s.hip != 0 {
-                    self.by_hip.insert(s.hip, ((t as u32) << TIER_SHIFT) | i as u32);
+                    self.by_hip.push((s.hip, ((t as u32) << TIER_SHIFT) | i as u32));
                 }
             }
+            // Stable: for one number, the older entries stay before the newer; keep the newest.
+            crate::sort::sort_by(&mut self.by_hip, |a, b| a.0.cmp(&b.0));
+            let mut kept: Vec<(u32, u32)> = Vec::with_capacity(self.by_hip.len());
+            for &e in &self.by_hip {
+                match kept.last_mut() {
+                    Some(last) if last.0 == e.0 => *last = e,
+                    _ => kept.push(e),
+                }
+            }
+            self.by_hip = kept;
             self.tiers[t] = Some(Tier { cat, index });
             Ok(())
         } else if stem == DSO_FILE {
@@ -135,7 +148,8 @@ impl Catalogs {
 
     /// Id of a Hipparcos star, if its tier is loaded.
     pub fn star_by_hip(&self, hip: u32) -> Option<u32> {
-        self.by_hip.get(&hip).copied()
+        let k = self.by_hip.binary_search_by(|e| e.0.cmp(&hip)).ok()?;
+        Some(self.by_hip[k].1)
     }
 
     /// Words for a star: its IAU name, else "HIP n", else "star of magnitude m".
