@@ -61,7 +61,7 @@ pub fn run_all(files: &[(&str, &[u8])], quick: bool, now_ns: &mut dyn FnMut() ->
         if let Ok(cat) = decode_stars(bytes) {
             let index = SkyIndex::build(&cat.stars);
             let centers: Vec<Equatorial> = (0..64)
-                .map(|i| Equatorial { ra_rad: (i as f64 * 0.618_034 % 1.0) * std::f64::consts::TAU, dec_rad: ((i as f64 * 0.414_214 % 1.0) * 2.0 - 1.0).asin() })
+                .map(|i| Equatorial { ra_rad: (i as f64 * 0.618_034 % 1.0) * std::f64::consts::TAU, dec_rad: libm::asin((i as f64 * 0.414_214 % 1.0) * 2.0 - 1.0) })
                 .collect();
             let radius = 0.5f64.to_radians();
             let mut found = 0;

@@ -7,6 +7,7 @@ pub mod bench;
 pub mod engine;
 pub mod find;
 pub mod json;
+pub mod math;
 pub mod optics;
 pub mod orient;
 pub mod plan;

@@ -286,7 +286,7 @@ pub struct Description {
 pub fn direction_words(v: [f64; 2]) -> &'static str {
     const NAMES: [&str; 8] = ["top", "upper left", "left", "lower left", "bottom", "lower right", "right", "upper right"];
     let ang = libm::atan2(-v[0], v[1]).to_degrees(); // anticlockwise from up
-    let k = libm::round(ang.rem_euclid(360.0) / 45.0) as usize % 8;
+    let k = libm::round(crate::math::rem_euclid(ang, 360.0) / 45.0) as usize % 8;
     NAMES[k]
 }
 

@@ -238,14 +238,14 @@ impl Instant {
 
 /// Wrap an angle into [0, 2π).
 pub fn wrap_2pi(a: f64) -> f64 {
-    let r = a.rem_euclid(std::f64::consts::TAU);
+    let r = crate::math::rem_euclid(a, std::f64::consts::TAU);
     if r >= std::f64::consts::TAU { 0.0 } else { r }
 }
 
 /// Earth rotation angle, IAU 2000 (ERFA `eraEra00`), from UT1.
 pub fn era_rad(ut1_jd: f64) -> f64 {
     let d = ut1_jd - J2000_JD;
-    let f = ut1_jd.rem_euclid(1.0);
+    let f = crate::math::rem_euclid(ut1_jd, 1.0);
     wrap_2pi(std::f64::consts::TAU * (f + 0.779_057_273_264_0 + 0.002_737_811_911_354_48 * d))
 }
 

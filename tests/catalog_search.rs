@@ -119,3 +119,35 @@ fn names_fold_ascii_case_and_keep_other_letters_exactly() {
     assert_eq!(hip(&c, "vEgA"), 91262);
     assert_eq!(dso_id(&c, "ngc 224"), dso_id(&c, "M31"));
 }
+
+/// Hipparcos look-ups after loads in any order (a tier loaded again replaces its own
+/// entries): the star loaded last for a number wins, as a map keyed by number keeps it.
+#[test]
+fn hip_lookup_follows_the_latest_load() {
+    use nightfield::sky::catalog::{star_id, StarCatalog};
+    use std::collections::HashMap;
+    let files: [(&str, usize, &[u8]); 2] =
+        [("stars_bright", 0, include_bytes!("../catalog/stars_bright.nfs")), ("stars_hip", 1, include_bytes!("../catalog/stars_hip.nfs"))];
+    for order in [[0usize, 1, 0], [1, 0, 1], [0, 0, 1]] {
+        let mut c = Catalogs::new();
+        let mut model: HashMap<u32, u32> = HashMap::new();
+        for &f in &order {
+            let (name, tier, bytes) = files[f];
+            c.load(name, bytes).unwrap();
+            let cat: &StarCatalog = c.tier(tier).unwrap();
+            model.retain(|_, id| nightfield::sky::catalog::split_star_id(*id).0 != tier);
+            for (i, s) in cat.stars.iter().enumerate() {
+                if s.hip != 0 {
+                    model.insert(s.hip, star_id(tier, i as u32));
+                }
+            }
+        }
+        assert!(model.len() > 1000, "{order:?}: {} Hipparcos stars", model.len());
+        for (&hip, &id) in &model {
+            assert_eq!(c.star_by_hip(hip), Some(id), "{order:?}: HIP {hip}");
+        }
+        for hip in [0, 120_000, 4_000_000_000] {
+            assert_eq!(c.star_by_hip(hip), model.get(&hip).copied(), "{order:?}: HIP {hip}");
+        }
+    }
+}

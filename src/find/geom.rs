@@ -84,7 +84,7 @@ pub fn rot2(theta: f64) -> DMat2 {
 
 pub fn wrap_2pi(a: f64) -> f64 {
     let t = core::f64::consts::TAU;
-    let r = a % t;
+    let r = libm::fmod(a, t);
     if r < 0.0 {
         r + t
     } else {

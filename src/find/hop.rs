@@ -21,7 +21,7 @@ use crate::sky::Equatorial;
 use glam::DVec3;
 use serde::{Deserialize, Serialize};
 use std::cmp::Ordering;
-use std::collections::{BinaryHeap, HashMap};
+use std::collections::BinaryHeap;
 
 /// A star as the route search sees it. `id` is the caller's (catalog index).
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
@@ -186,27 +186,35 @@ impl PartialOrd for Cost {
 }
 
 /// Buckets of unit vectors on a cubic grid of side `cell` (chord length):
-/// every pair closer than `cell` lies in neighbouring cells.
+/// every pair closer than `cell` lies in neighbouring cells. The points are kept ordered
+/// by cell (ascending point number within a cell) and a cell is found by binary search,
+/// so no hash map is compiled for this one key type (wasm size).
 struct Grid {
     cell: f64,
-    map: HashMap<(i32, i32, i32), Vec<u32>>,
+    /// Each point's cell.
+    keys: Vec<(i32, i32, i32)>,
+    /// Point numbers ordered by cell, then by number.
+    order: Vec<u32>,
 }
 
 impl Grid {
     fn new(vs: &[DVec3], cell: f64) -> Grid {
-        let mut map: HashMap<(i32, i32, i32), Vec<u32>> = HashMap::new();
-        for (i, v) in vs.iter().enumerate() {
-            map.entry(key(*v, cell)).or_default().push(i as u32);
-        }
-        Grid { cell, map }
+        let keys: Vec<(i32, i32, i32)> = vs.iter().map(|v| key(*v, cell)).collect();
+        let mut order: Vec<u32> = (0..vs.len() as u32).collect();
+        crate::sort::sort_indices(&mut order, &|a, b| keys[a as usize].cmp(&keys[b as usize]));
+        Grid { cell, keys, order }
     }
+    /// Calls `f` with every point in the 27 cells around `v`, cell by cell, each cell's
+    /// points in ascending number.
     fn near(&self, v: DVec3, mut f: impl FnMut(u32)) {
         let (x, y, z) = key(v, self.cell);
         for dx in -1..=1 {
             for dy in -1..=1 {
                 for dz in -1..=1 {
-                    if let Some(list) = self.map.get(&(x + dx, y + dy, z + dz)) {
-                        list.iter().for_each(|&i| f(i));
+                    let k = (x + dx, y + dy, z + dz);
+                    let first = self.order.partition_point(|&i| self.keys[i as usize] < k);
+                    for &i in self.order[first..].iter().take_while(|&&i| self.keys[i as usize] == k) {
+                        f(i);
                     }
                 }
             }
@@ -562,5 +570,45 @@ fn describe(cost_rad: f64, stars: &[HopStar], nodes: &Nodes, path: &[u32], start
         cost_rad,
         stars_considered: nodes.pos.len().saturating_sub(2),
         method: METHOD,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{key, Grid};
+    use glam::DVec3;
+
+    /// `Grid::near` visits exactly the points whose cell is within one step on every
+    /// axis, cell by cell (dx, then dy, then dz), each cell's points in ascending number:
+    /// the order the bucket map it replaced gave.
+    #[test]
+    fn grid_near_visits_neighbouring_cells_in_order() {
+        let mut seed = 0x2545_f491_4f6c_dd1du64;
+        let mut rnd = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed >> 11) as f64 / (1u64 << 53) as f64 * 2.0 - 1.0
+        };
+        for &cell in &[0.05, 0.3, 1.0, 3.0] {
+            let vs: Vec<DVec3> = (0..400).map(|_| DVec3::new(rnd(), rnd(), rnd()).normalize_or(DVec3::X)).collect();
+            let grid = Grid::new(&vs, cell);
+            for probe in vs.iter().take(60) {
+                let mut got = Vec::new();
+                grid.near(*probe, |i| got.push(i));
+                let (x, y, z) = key(*probe, cell);
+                let mut want = Vec::new();
+                for dx in -1..=1 {
+                    for dy in -1..=1 {
+                        for dz in -1..=1 {
+                            let k = (x + dx, y + dy, z + dz);
+                            want.extend((0..vs.len() as u32).filter(|&i| key(vs[i as usize], cell) == k));
+                        }
+                    }
+                }
+                assert_eq!(got, want, "cell {cell}");
+                assert!(!got.is_empty(), "a point's own cell holds it");
+            }
+        }
     }
 }

@@ -94,9 +94,9 @@ impl AzSector {
 
 /// Whether `az` lies in [from, to], wrapping through north when from > to.
 pub fn az_in(az_deg: f64, from_deg: f64, to_deg: f64) -> bool {
-    let a = az_deg.rem_euclid(360.0);
-    let f = from_deg.rem_euclid(360.0);
-    let t = to_deg.rem_euclid(360.0);
+    let a = crate::math::rem_euclid(az_deg, 360.0);
+    let f = crate::math::rem_euclid(from_deg, 360.0);
+    let t = crate::math::rem_euclid(to_deg, 360.0);
     if f <= t {
         a >= f && a <= t
     } else {

@@ -142,7 +142,7 @@ pub fn candidate_from_dso_with(d: &Dso, npb: &glam::DMat3) -> Option<Candidate> 
         id: designation,
         name,
         kind,
-        position: TargetPosition::Fixed { ra_rad: ra.rem_euclid(core::f64::consts::TAU), dec_rad: dec },
+        position: TargetPosition::Fixed { ra_rad: crate::math::rem_euclid(ra, core::f64::consts::TAU), dec_rad: dec },
         major_arcmin: major,
         minor_arcmin: minor,
         vmag,

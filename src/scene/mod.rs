@@ -35,7 +35,7 @@ pub fn gnomonic_inverse(center: Equatorial, off: DVec2) -> Equatorial {
     let den = cd0 - off.y * sd0;
     let ra = center.ra_rad + libm::atan2(off.x, den);
     let dec = libm::atan2(sd0 + off.y * cd0, libm::sqrt(off.x * off.x + den * den));
-    Equatorial { ra_rad: ra.rem_euclid(core::f64::consts::TAU), dec_rad: dec }
+    Equatorial { ra_rad: crate::math::rem_euclid(ra, core::f64::consts::TAU), dec_rad: dec }
 }
 
 /// Local Jacobian of the projection at `p`: columns are the tangent-plane

@@ -65,11 +65,11 @@ pub fn astrometric_direction(place: &CatalogPlace, epoch_jyear: f64, tt_jd: f64,
     let pmt = (tt_jd - jyear_to_jd(epoch_jyear)) / JULIAN_YEAR_DAYS;
     let dt = pmt + p0.dot(observer_bary_au) * AULTY;
     let pxr = place.parallax_mas.max(0.0) * 1e-3 * ARCSEC_RAD;
-    let cd = place.dec_rad.cos();
+    let cd = libm::cos(place.dec_rad);
     let pr = if cd.abs() > 1e-12 { place.pm_ra_cosdec_mas_yr * 1e-3 * ARCSEC_RAD / cd } else { 0.0 };
     let pd = place.pm_dec_mas_yr * 1e-3 * ARCSEC_RAD;
     let w = VF * place.rv_km_s * pxr;
-    let (sr, cr) = place.ra_rad.sin_cos();
+    let (sr, cr) = libm::sincos(place.ra_rad);
     let pdz = pd * p0.z;
     let pm = DVec3::new(-pr * p0.y - pdz * cr + w * p0.x, pr * p0.x - pdz * sr + w * p0.y, pd * cd + w * p0.z);
     (p0 + dt * pm - pxr * observer_bary_au).normalize()

@@ -303,18 +303,18 @@ fn series(t: f64, s0: &[[f64; 3]], s1: &[[f64; 3]], s2: &[[f64; 3]]) -> (f64, f6
     let (mut p, mut v) = (0.0, 0.0);
     for &[a, b, c] in s0.iter() {
         let ph = b + c * t;
-        p += a * ph.cos();
-        v -= a * c * ph.sin();
+        p += a * libm::cos(ph);
+        v -= a * c * libm::sin(ph);
     }
     for &[a, b, c] in s1.iter() {
         let ct = c * t;
-        let (sp, cp) = (b + ct).sin_cos();
+        let (sp, cp) = libm::sincos(b + ct);
         p += a * t * cp;
         v += a * (cp - ct * sp);
     }
     for &[a, b, c] in s2.iter() {
         let ct = c * t;
-        let (sp, cp) = (b + ct).sin_cos();
+        let (sp, cp) = libm::sincos(b + ct);
         p += a * t * t * cp;
         v += a * t * (2.0 * cp - ct * sp);
     }

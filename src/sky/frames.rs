@@ -41,13 +41,13 @@ fn rows(r: [[f64; 3]; 3]) -> DMat3 {
 
 /// ERFA-style frame rotation about x (rotates the frame by +a).
 pub fn rot_x(a: f64) -> DMat3 {
-    let (s, c) = a.sin_cos();
+    let (s, c) = libm::sincos(a);
     rows([[1.0, 0.0, 0.0], [0.0, c, s], [0.0, -s, c]])
 }
 
 /// ERFA-style frame rotation about z (rotates the frame by +a).
 pub fn rot_z(a: f64) -> DMat3 {
-    let (s, c) = a.sin_cos();
+    let (s, c) = libm::sincos(a);
     rows([[c, s, 0.0], [-s, c, 0.0], [0.0, 0.0, 1.0]])
 }
 
@@ -75,20 +75,20 @@ pub fn npb_matrix(tt_jd: f64) -> DMat3 {
 /// plus the complementary terms (ERFA `eraEe00` + `eraEect00` structure).
 pub fn equation_of_equinoxes_rad(tt_jd: f64) -> f64 {
     let (dpsi, _) = nutation_2000b_rad(tt_jd);
-    dpsi * mean_obliquity_rad(tt_jd).cos() + ee_complementary_rad(tt_jd)
+    dpsi * libm::cos(mean_obliquity_rad(tt_jd)) + ee_complementary_rad(tt_jd)
 }
 
 /// Unit vector of a right ascension and declination.
 pub fn unit_vector(ra_rad: f64, dec_rad: f64) -> DVec3 {
-    let (sd, cd) = dec_rad.sin_cos();
-    let (sr, cr) = ra_rad.sin_cos();
+    let (sd, cd) = libm::sincos(dec_rad);
+    let (sr, cr) = libm::sincos(ra_rad);
     DVec3::new(cd * cr, cd * sr, sd)
 }
 
 /// Right ascension in [0, 2π) and declination of a (not necessarily unit) vector.
 pub fn ra_dec_of(v: DVec3) -> (f64, f64) {
     let rxy = (v.x * v.x + v.y * v.y).sqrt();
-    let ra = if rxy == 0.0 { 0.0 } else { crate::time::wrap_2pi(v.y.atan2(v.x)) };
-    let dec = if v.z == 0.0 && rxy == 0.0 { 0.0 } else { v.z.atan2(rxy) };
+    let ra = if rxy == 0.0 { 0.0 } else { crate::time::wrap_2pi(libm::atan2(v.y, v.x)) };
+    let dec = if v.z == 0.0 && rxy == 0.0 { 0.0 } else { libm::atan2(v.z, rxy) };
     (ra, dec)
 }

@@ -68,28 +68,28 @@ pub fn hour_angle_rad(ra_rad: f64, lon_rad: f64, t: &Instant) -> f64 {
 /// Hour angle and declination → (altitude, azimuth from north through east),
 /// spherical trigonometry as ERFA `eraHd2ae`.
 pub fn hd_to_horizontal(ha_rad: f64, dec_rad: f64, lat_rad: f64) -> Horizontal {
-    let (sh, ch) = ha_rad.sin_cos();
-    let (sd, cd) = dec_rad.sin_cos();
-    let (sp, cp) = lat_rad.sin_cos();
+    let (sh, ch) = libm::sincos(ha_rad);
+    let (sd, cd) = libm::sincos(dec_rad);
+    let (sp, cp) = libm::sincos(lat_rad);
     let x = -ch * cd * sp + sd * cp;
     let y = -sh * cd;
     let z = ch * cd * cp + sd * sp;
     let r = (x * x + y * y).sqrt();
-    let az = if r != 0.0 { wrap_2pi(y.atan2(x)) } else { 0.0 };
-    Horizontal { alt_rad: z.atan2(r), az_rad: az }
+    let az = if r != 0.0 { wrap_2pi(libm::atan2(y, x)) } else { 0.0 };
+    Horizontal { alt_rad: libm::atan2(z, r), az_rad: az }
 }
 
 /// Altitude/azimuth → (hour angle, declination), as ERFA `eraAe2hd`.
 pub fn horizontal_to_hd(h: Horizontal, lat_rad: f64) -> (f64, f64) {
-    let (sa, ca) = h.az_rad.sin_cos();
-    let (se, ce) = h.alt_rad.sin_cos();
-    let (sp, cp) = lat_rad.sin_cos();
+    let (sa, ca) = libm::sincos(h.az_rad);
+    let (se, ce) = libm::sincos(h.alt_rad);
+    let (sp, cp) = libm::sincos(lat_rad);
     let x = -ca * ce * sp + se * cp;
     let y = -sa * ce;
     let z = ca * ce * cp + se * sp;
     let r = (x * x + y * y).sqrt();
-    let ha = if r != 0.0 { y.atan2(x) } else { 0.0 };
-    (ha, z.atan2(r))
+    let ha = if r != 0.0 { libm::atan2(y, x) } else { 0.0 };
+    (ha, libm::atan2(z, r))
 }
 
 /// Apparent place (true equator and equinox of date) → geometric altitude/azimuth
@@ -108,24 +108,24 @@ pub fn from_horizontal(h: Horizontal, site: &Site, t: &Instant) -> Equatorial {
 /// Parallactic angle (angle at the target from the north celestial pole to the
 /// zenith, positive when the zenith lies east of north), as ERFA `eraHd2pa`.
 pub fn parallactic_angle_rad(hour_angle_rad: f64, dec_rad: f64, lat_rad: f64) -> f64 {
-    let (sp, cp) = lat_rad.sin_cos();
-    let (sd, cd) = dec_rad.sin_cos();
-    let (sh, ch) = hour_angle_rad.sin_cos();
+    let (sp, cp) = libm::sincos(lat_rad);
+    let (sd, cd) = libm::sincos(dec_rad);
+    let (sh, ch) = libm::sincos(hour_angle_rad);
     let sqsz = cp * sh;
     let cqsz = sp * cd - cp * sd * ch;
-    if sqsz != 0.0 || cqsz != 0.0 { sqsz.atan2(cqsz) } else { 0.0 }
+    if sqsz != 0.0 || cqsz != 0.0 { libm::atan2(sqsz, cqsz) } else { 0.0 }
 }
 
 /// The site's geocentric position on the rotating Earth (ITRS = TIRS with zero
 /// polar motion), metres: WGS84 geodetic → Cartesian (ERFA `eraGd2gce`).
 pub fn site_itrs_m(site: &Site) -> DVec3 {
-    let (sp, cp) = site.lat_rad.sin_cos();
+    let (sp, cp) = libm::sincos(site.lat_rad);
     let w = (1.0 - WGS84_F) * (1.0 - WGS84_F);
     let d = cp * cp + w * sp * sp;
     let ac = WGS84_A_M / d.sqrt();
     let as_ = w * ac;
     let r = (ac + site.elev_m) * cp;
-    let (sl, cl) = site.lon_rad.sin_cos();
+    let (sl, cl) = libm::sincos(site.lon_rad);
     DVec3::new(r * cl, r * sl, (as_ + site.elev_m) * sp)
 }
 
@@ -133,7 +133,7 @@ pub fn site_itrs_m(site: &Site) -> DVec3 {
 /// (ITRS vector rotated by GAST; for topocentric parallax of the Moon and planets).
 pub fn observer_position_of_date_m(site: &Site, t: &Instant) -> DVec3 {
     let p = site_itrs_m(site);
-    let (s, c) = gast_rad(t).sin_cos();
+    let (s, c) = libm::sincos(gast_rad(t));
     DVec3::new(c * p.x - s * p.y, s * p.x + c * p.y, p.z)
 }
 

@@ -57,7 +57,7 @@ impl SkyIndex {
         let mut mag = Vec::new();
         let mut radec = Vec::new();
         for (ra, dec, m) in points {
-            let ra = ra.rem_euclid(TAU);
+            let ra = crate::math::rem_euclid(ra, TAU);
             let dec = dec.clamp(-FRAC_PI_2, FRAC_PI_2);
             vec.push(unit_vector(ra, dec));
             mag.push(if m.is_nan() { f32::NAN } else { m });
@@ -138,7 +138,7 @@ impl SkyIndex {
             return;
         }
         let r = radius_rad.clamp(0.0, PI);
-        let ra0 = center.ra_rad.rem_euclid(TAU);
+        let ra0 = crate::math::rem_euclid(center.ra_rad, TAU);
         let dec0 = center.dec_rad.clamp(-FRAC_PI_2, FRAC_PI_2);
         let c = unit_vector(ra0, dec0);
         let cos_r = libm::cos(r);
@@ -191,7 +191,7 @@ impl SkyIndex {
             return Vec::new();
         }
         let r = radius_rad.clamp(0.0, PI);
-        let c = unit_vector(center.ra_rad.rem_euclid(TAU), center.dec_rad.clamp(-FRAC_PI_2, FRAC_PI_2));
+        let c = unit_vector(crate::math::rem_euclid(center.ra_rad, TAU), center.dec_rad.clamp(-FRAC_PI_2, FRAC_PI_2));
         let cos_r = libm::cos(r);
         (0..self.vec.len() as u32)
             .filter(|&i| self.mag[i as usize] <= mag_limit && dot(&self.vec[i as usize], &c) >= cos_r)

@@ -134,7 +134,7 @@ const EECT0: [([i8; 8], f64, f64); 33] = [
 pub fn nutation_2000b_rad(tt_jd: f64) -> (f64, f64) {
     let t = (tt_jd - crate::time::J2000_JD) / crate::time::DAYS_PER_CENTURY;
     // Delaunay arguments, Simon et al. (1994), as in eraNut00b.
-    let a = |c0: f64, c1: f64| (c0 + c1 * t).rem_euclid(TURN_ARCSEC) * ARCSEC_RAD;
+    let a = |c0: f64, c1: f64| crate::math::rem_euclid(c0 + c1 * t, TURN_ARCSEC) * ARCSEC_RAD;
     let el = a(485868.249036, 1717915923.2178);
     let elp = a(1287104.79305, 129596581.0481);
     let f = a(335779.526232, 1739527262.8478);
@@ -142,9 +142,11 @@ pub fn nutation_2000b_rad(tt_jd: f64) -> (f64, f64) {
     let om = a(450160.398036, -6962890.5431);
     let (mut dp, mut de) = (0.0, 0.0);
     for (n, c) in LUNISOLAR.iter().rev() {
-        let arg = (n[0] as f64 * el + n[1] as f64 * elp + n[2] as f64 * f + n[3] as f64 * d + n[4] as f64 * om)
-            .rem_euclid(std::f64::consts::TAU);
-        let (s, co) = arg.sin_cos();
+        let arg = crate::math::rem_euclid(
+            n[0] as f64 * el + n[1] as f64 * elp + n[2] as f64 * f + n[3] as f64 * d + n[4] as f64 * om,
+            std::f64::consts::TAU,
+        );
+        let (s, co) = libm::sincos(arg);
         dp += (c[0] + c[1] * t) * s + c[2] * co;
         de += (c[3] + c[4] * t) * co + c[5] * s;
     }
@@ -160,24 +162,24 @@ pub fn nutation_2000b_rad(tt_jd: f64) -> (f64, f64) {
 /// IERS Conventions 2003 fundamental arguments).
 pub fn ee_complementary_rad(tt_jd: f64) -> f64 {
     let t = (tt_jd - crate::time::J2000_JD) / crate::time::DAYS_PER_CENTURY;
-    let p = |c: [f64; 5]| (c[0] + t * (c[1] + t * (c[2] + t * (c[3] + t * c[4])))).rem_euclid(TURN_ARCSEC) * ARCSEC_RAD;
+    let p = |c: [f64; 5]| crate::math::rem_euclid(c[0] + t * (c[1] + t * (c[2] + t * (c[3] + t * c[4]))), TURN_ARCSEC) * ARCSEC_RAD;
     let fa = [
         p([485868.249036, 1717915923.2178, 31.8792, 0.051635, -0.00024470]),
         p([1287104.793048, 129596581.0481, -0.5532, 0.000136, -0.00001149]),
         p([335779.526232, 1739527262.8478, -12.7512, -0.001037, 0.00000417]),
         p([1072260.703692, 1602961601.2090, -6.3706, 0.006593, -0.00003169]),
         p([450160.398036, -6962890.5431, 7.4722, 0.007702, -0.00005939]),
-        (3.176146697 + 1021.3285546211 * t).rem_euclid(std::f64::consts::TAU),
-        (1.753470314 + 628.3075849991 * t).rem_euclid(std::f64::consts::TAU),
+        crate::math::rem_euclid(3.176146697 + 1021.3285546211 * t, std::f64::consts::TAU),
+        crate::math::rem_euclid(1.753470314 + 628.3075849991 * t, std::f64::consts::TAU),
         (0.024381750 + 0.00000538691 * t) * t,
     ];
     let arg = |n: &[i8; 8]| n.iter().zip(fa.iter()).map(|(&k, &f)| k as f64 * f).sum::<f64>();
     let mut s0 = 0.0;
     for (n, s, c) in EECT0.iter().rev() {
         let a = arg(n);
-        s0 += s * a.sin() + c * a.cos();
+        s0 += s * libm::sin(a) + c * libm::cos(a);
     }
     // The single t¹ term: Ω with sine coefficient −0.87 µas.
-    let s1 = -0.87e-6 * fa[4].sin();
+    let s1 = -0.87e-6 * libm::sin(fa[4]);
     (s0 + s1 * t) * ARCSEC_RAD
 }

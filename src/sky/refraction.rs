@@ -33,7 +33,7 @@ pub fn refraction_rad(true_alt_rad: f64, pressure_hpa: f64, temp_c: f64) -> f64 
     if h >= 90.0 {
         return 0.0;
     }
-    let r_arcmin = 1.02 / (h + 10.3 / (h + 5.11)).to_radians().tan();
+    let r_arcmin = 1.02 / libm::tan((h + 10.3 / (h + 5.11)).to_radians());
     (r_arcmin * pt_factor(pressure_hpa, temp_c) / 60.0).to_radians().max(0.0)
 }
 
@@ -47,7 +47,7 @@ pub fn refraction_from_apparent_rad(apparent_alt_rad: f64, pressure_hpa: f64, te
     if h >= 90.0 {
         return 0.0;
     }
-    let r_arcmin = 1.0 / (h + 7.31 / (h + 4.4)).to_radians().tan();
+    let r_arcmin = 1.0 / libm::tan((h + 7.31 / (h + 4.4)).to_radians());
     (r_arcmin * pt_factor(pressure_hpa, temp_c) / 60.0).to_radians().max(0.0)
 }
 

@@ -238,10 +238,10 @@ pub fn sun_low_precision(tt_jd: f64) -> Equatorial {
     let n = tt_jd - crate::time::J2000_JD;
     let l = (280.460 + 0.985_647_4 * n).to_radians();
     let g = (357.528 + 0.985_600_3 * n).to_radians();
-    let lambda = l + (1.915 * g.sin() + 0.020 * (2.0 * g).sin()).to_radians();
+    let lambda = l + (1.915 * libm::sin(g) + 0.020 * libm::sin(2.0 * g)).to_radians();
     let eps = (23.439 - 0.000_000_4 * n).to_radians();
-    let ra = (eps.cos() * lambda.sin()).atan2(lambda.cos());
-    Equatorial { ra_rad: crate::time::wrap_2pi(ra), dec_rad: (eps.sin() * lambda.sin()).asin() }
+    let ra = libm::atan2(libm::cos(eps) * libm::sin(lambda), libm::cos(lambda));
+    Equatorial { ra_rad: crate::time::wrap_2pi(ra), dec_rad: libm::asin(libm::sin(eps) * libm::sin(lambda)) }
 }
 
 /// Geometric altitude of the low-precision Sun at a site (NaN outside 1900–2100).

@@ -246,7 +246,7 @@ pub fn central_meridian_ii_rad(eph: &Ephemeris, tt_jd: f64) -> Result<f64, Solar
 
 fn cm_from_frame(fr: &JupiterFrame) -> f64 {
     let d = fr.tdb_emit - 2_451_545.0;
-    let w = (43.3 + 870.270 * d).rem_euclid(360.0).to_radians();
+    let w = crate::math::rem_euclid(43.3 + 870.270 * d, 360.0).to_radians();
     // Node of Jupiter's equator on the ICRF equator: Q = ẑ × pole.
     let q = DVec3::Z.cross(fr.pole).normalize();
     let y = fr.pole.cross(q);
@@ -254,7 +254,7 @@ fn cm_from_frame(fr: &JupiterFrame) -> f64 {
     let lon_from_q = libm::atan2(fr.to_obs.dot(y), fr.to_obs.dot(q));
     // West longitude: the prime meridian sits at W from Q; points at angle x from Q
     // have west longitude W − x.
-    (w - lon_from_q).rem_euclid(2.0 * core::f64::consts::PI)
+    crate::math::rem_euclid(w - lon_from_q, 2.0 * core::f64::consts::PI)
 }
 
 /// Times (TT Julian dates) in [start, end] when a System II longitude (e.g. the
@@ -273,10 +273,10 @@ pub fn grs_transits_tt(eph: &Ephemeris, start_tt_jd: f64, end_tt_jd: f64, grs_lo
     let behind = |t: f64| -> Result<f64, SolarError> {
         // How far the spot's longitude is ahead of the CM, in (−π, π].
         let cm = central_meridian_ii_rad(eph, t)?;
-        let x = (grs_lon_ii_rad - cm).rem_euclid(tau);
+        let x = crate::math::rem_euclid(grs_lon_ii_rad - cm, tau);
         Ok(if x > core::f64::consts::PI { x - tau } else { x })
     };
-    let mut t = start_tt_jd + behind(start_tt_jd)?.rem_euclid(tau) / rate;
+    let mut t = start_tt_jd + crate::math::rem_euclid(behind(start_tt_jd)?, tau) / rate;
     while t <= end_tt_jd + 0.5 {
         let mut tt = t;
         for _ in 0..4 {

@@ -37,7 +37,7 @@ fn node_and_f_rad(tdb_jd: f64) -> (f64, f64) {
     let t = (tdb_jd - 2_451_545.0) / 36_525.0;
     let om = 125.044_547_9 - 1_934.136_289_1 * t + 0.002_075_4 * t * t + t * t * t / 467_441.0;
     let f = 93.272_095_0 + 483_202.017_523_3 * t - 0.003_653_9 * t * t - t * t * t / 3_526_000.0;
-    (om.to_radians().rem_euclid(TAU), f.to_radians().rem_euclid(TAU))
+    (crate::math::rem_euclid(om.to_radians(), TAU), crate::math::rem_euclid(f.to_radians(), TAU))
 }
 
 fn to_ecliptic_of_date(v_gcrs: DVec3, tt_jd: f64) -> DVec3 {
@@ -62,7 +62,7 @@ fn selenographic(u_ecl: DVec3, om: f64, f: f64) -> (f64, f64) {
     let (sb, cb) = libm::sincos(beta);
     let (si, ci) = libm::sincos(I_RAD);
     let a = libm::atan2(sw * cb * ci - sb * si, cw * cb);
-    let l = (a - f + core::f64::consts::PI).rem_euclid(TAU) - core::f64::consts::PI;
+    let l = crate::math::rem_euclid(a - f + core::f64::consts::PI, TAU) - core::f64::consts::PI;
     let b = libm::asin((-sw * cb * si - sb * ci).clamp(-1.0, 1.0));
     (l, b)
 }
@@ -84,7 +84,7 @@ pub fn moon_face(moon: &Apparent) -> MoonFace {
         libration_lon_rad: l,
         libration_lat_rad: b,
         axis_pa_rad: position_angle_rad(moon.dir_gcrs, pole, moon.pole_of_date()),
-        colongitude_rad: (core::f64::consts::FRAC_PI_2 - l0).rem_euclid(TAU),
+        colongitude_rad: crate::math::rem_euclid(core::f64::consts::FRAC_PI_2 - l0, TAU),
         subsolar_lat_rad: b0,
     }
 }
@@ -94,7 +94,7 @@ fn elongation_lon_rad(eph: &Ephemeris, tt_jd: f64) -> Result<f64, SolarError> {
     let (m, _) = geocentric_astrometric(eph, BodyId::Moon, tt_jd)?;
     let (s, _) = geocentric_astrometric(eph, BodyId::Sun, tt_jd)?;
     let (m, s) = (to_ecliptic_of_date(m, tt_jd), to_ecliptic_of_date(s, tt_jd));
-    Ok((libm::atan2(m.y, m.x) - libm::atan2(s.y, s.x)).rem_euclid(TAU))
+    Ok(crate::math::rem_euclid(libm::atan2(m.y, m.x) - libm::atan2(s.y, s.x), TAU))
 }
 
 /// Age of the Moon, days since the last new moon (geocentric conjunction in
@@ -129,7 +129,7 @@ pub fn phase_name(elongation_lon_rad: f64) -> &'static str {
         "last quarter",
         "waning crescent",
     ];
-    let k = ((elongation_lon_rad.rem_euclid(TAU) / TAU * 8.0 + 0.5) as usize) % 8;
+    let k = ((crate::math::rem_euclid(elongation_lon_rad, TAU) / TAU * 8.0 + 0.5) as usize) % 8;
     NAMES[k]
 }
 

@@ -1,8 +1,6 @@
 //! `Catalogs`: the loaded catalog files plus their indexes, loaded tier by tier so a
 //! phone can show the bright tier before the deep ones arrive.
 
-use std::collections::HashMap;
-
 use super::{decode_stars, CatalogError, Star, StarCatalog};
 use crate::sky::dso::{decode_dso, Dso, DsoCatalog};
 use crate::sky::index::{unit_vector, SkyIndex};
@@ -41,10 +39,11 @@ struct DsoSet {
     small: Vec<u32>,
     large: Vec<u32>,
     /// Normalized identifier ("ngc1976", "ic434", "mel22") → object.
-    by_id: HashMap<String, u32>,
-    by_messier: HashMap<u8, u32>,
+    by_id: NameIndex,
+    /// Messier number → object (None: not in the catalog); a table, not another map type.
+    by_messier: Vec<Option<u32>>,
     /// Normalized common name ("orionnebula") → object.
-    by_name: HashMap<String, u32>,
+    by_name: NameIndex,
 }
 
 /// All loaded catalogs. Empty at first; [`Catalogs::load`] adds one file at a time.
@@ -52,7 +51,10 @@ struct DsoSet {
 pub struct Catalogs {
     tiers: [Option<Tier>; 3],
     dso: Option<DsoSet>,
-    by_hip: HashMap<u32, u32>,
+    /// (Hipparcos number, star id), sorted by number, one entry per number: the star
+    /// loaded last, as a map's insert would keep. A sorted list, not another map type
+    /// (wasm size).
+    by_hip: Vec<(u32, u32)>,
 }
 
 /// A star id from a tier number and an index into that tier's `stars`.
@@ -92,12 +94,22 @@ impl Catalogs {
         if let Some(t) = STAR_TIERS.iter().position(|&s| s == stem) {
             let cat = decode_stars(bytes)?;
             let index = SkyIndex::build(&cat.stars);
-            self.by_hip.retain(|_, id| (*id >> TIER_SHIFT) as usize != t);
+            self.by_hip.retain(|&(_, id)| (id >> TIER_SHIFT) as usize != t);
             for (i, s) in cat.stars.iter().enumerate() {
                 if s.hip != 0 {
-                    self.by_hip.insert(s.hip, ((t as u32) << TIER_SHIFT) | i as u32);
+                    self.by_hip.push((s.hip, ((t as u32) << TIER_SHIFT) | i as u32));
                 }
             }
+            // Stable: for one number, the older entries stay before the newer; keep the newest.
+            crate::sort::sort_by(&mut self.by_hip, |a, b| a.0.cmp(&b.0));
+            let mut kept: Vec<(u32, u32)> = Vec::with_capacity(self.by_hip.len());
+            for &e in &self.by_hip {
+                match kept.last_mut() {
+                    Some(last) if last.0 == e.0 => *last = e,
+                    _ => kept.push(e),
+                }
+            }
+            self.by_hip = kept;
             self.tiers[t] = Some(Tier { cat, index });
             Ok(())
         } else if stem == DSO_FILE {
@@ -134,7 +146,8 @@ impl Catalogs {
 
     /// Id of a Hipparcos star, if its tier is loaded.
     pub fn star_by_hip(&self, hip: u32) -> Option<u32> {
-        self.by_hip.get(&hip).copied()
+        let k = self.by_hip.binary_search_by(|e| e.0.cmp(&hip)).ok()?;
+        Some(self.by_hip[k].1)
     }
 
     /// Words for a star: its IAU name, else "HIP n", else "star of magnitude m".
@@ -220,13 +233,13 @@ impl Catalogs {
     }
 
     pub(crate) fn dso_by_id(&self, normalized: &str) -> Option<u32> {
-        self.dso.as_ref()?.by_id.get(normalized).copied()
+        self.dso.as_ref()?.by_id.get(normalized)
     }
     pub(crate) fn dso_by_messier(&self, m: u8) -> Option<u32> {
-        self.dso.as_ref()?.by_messier.get(&m).copied()
+        self.dso.as_ref()?.by_messier[m as usize]
     }
     pub(crate) fn dso_by_name(&self, normalized: &str) -> Option<u32> {
-        self.dso.as_ref()?.by_name.get(normalized).copied()
+        self.dso.as_ref()?.by_name.get(normalized)
     }
     pub(crate) fn dso_common_names(&self) -> impl Iterator<Item = &str> {
         self.dso.iter().flat_map(|d| d.cat.objects.iter().flat_map(|o| o.common_names.iter().map(String::as_str)))
@@ -252,30 +265,103 @@ fn build_dso(cat: DsoCatalog) -> DsoSet {
         let o = &cat.objects[i as usize];
         (o.ra_rad, o.dec_rad, 0.0)
     }));
-    let (mut by_id, mut by_messier, mut by_name) = (HashMap::new(), HashMap::new(), HashMap::new());
+    // (name, object, flag) in load order; each index keeps one object per name below.
+    let (mut ids, mut names_in) = (Vec::new(), Vec::new());
+    let mut by_messier: Vec<Option<u32>> = vec![None; 256];
     for (i, o) in cat.objects.iter().enumerate() {
-        // First identifier wins for the object's own name; cross-ids do not override it.
         for (k, id) in o.ids.iter().enumerate() {
-            let key = normalize_id(id);
-            if k == 0 {
-                by_id.insert(key, i as u32);
-            } else {
-                by_id.entry(key).or_insert(i as u32);
-            }
+            ids.push((normalize_id(id), i as u32, k == 0));
         }
         if o.messier > 0 {
-            by_messier.entry(o.messier).or_insert(i as u32);
+            by_messier[o.messier as usize].get_or_insert(i as u32);
         }
         for n in &o.common_names {
-            let key = names::normalize(n);
-            // A Messier object keeps a shared name over a non-Messier one.
-            match by_name.get(&key) {
-                Some(&j) if cat.objects[j as usize].messier > 0 || o.messier == 0 => {}
-                _ => {
-                    by_name.insert(key, i as u32);
+            names_in.push((names::normalize(n), i as u32, o.messier > 0));
+        }
+    }
+    // An object's own (first) identifier wins over cross-ids, the last such object over
+    // earlier ones; a name no object has as its own goes to the first object listing it.
+    let by_id = NameIndex::build(ids, |g| g.iter().rev().find(|e| e.2).unwrap_or(&g[0]).1);
+    // A Messier object keeps a shared name over a non-Messier one; else the first wins.
+    let by_name = NameIndex::build(names_in, |g| g.iter().find(|e| e.2).unwrap_or(&g[0]).1);
+    DsoSet { cat, index, small, large, by_id, by_messier, by_name }
+}
+
+/// Normalized name → object, as a list sorted by name and searched by halves: no hash
+/// map (its table code and hasher) in the wasm.
+struct NameIndex(Vec<(String, u32)>);
+
+impl NameIndex {
+    /// From (name, object, flag) entries in load order; `pick` chooses the object a name
+    /// keeps from all of that name's entries (given in load order).
+    fn build(mut entries: Vec<(String, u32, bool)>, pick: fn(&[(String, u32, bool)]) -> u32) -> NameIndex {
+        crate::sort::sort_by(&mut entries, |a, b| a.0.cmp(&b.0)); // stable: load order within a name
+        let mut out = Vec::new();
+        let mut start = 0;
+        while start < entries.len() {
+            let end = start + entries[start..].iter().take_while(|e| e.0 == entries[start].0).count();
+            let object = pick(&entries[start..end]);
+            out.push((core::mem::take(&mut entries[start].0), object));
+            start = end;
+        }
+        NameIndex(out)
+    }
+
+    fn get(&self, name: &str) -> Option<u32> {
+        let k = self.0.binary_search_by(|e| e.0.as_str().cmp(name)).ok()?;
+        Some(self.0[k].1)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use std::collections::HashMap;
+
+    /// The name indexes give what the hash maps they replaced gave, rebuilt here with
+    /// the same inserts, for every name in the real DSO file and a few absent ones.
+    #[test]
+    fn name_indexes_match_map_inserts() {
+        let cat = decode_dso(include_bytes!("../../../catalog/dso_openngc.nfd")).unwrap();
+        let (mut by_id, mut by_messier, mut by_name) = (HashMap::new(), HashMap::new(), HashMap::new());
+        for (i, o) in cat.objects.iter().enumerate() {
+            for (k, id) in o.ids.iter().enumerate() {
+                let key = normalize_id(id);
+                if k == 0 {
+                    by_id.insert(key, i as u32);
+                } else {
+                    by_id.entry(key).or_insert(i as u32);
+                }
+            }
+            if o.messier > 0 {
+                by_messier.entry(o.messier).or_insert(i as u32);
+            }
+            for n in &o.common_names {
+                let key = names::normalize(n);
+                match by_name.get(&key) {
+                    Some(&j) if cat.objects[j as usize].messier > 0 || o.messier == 0 => {}
+                    _ => {
+                        by_name.insert(key, i as u32);
+                    }
                 }
             }
         }
+        let set = build_dso(cat);
+        assert!(by_id.len() > 5000 && by_name.len() > 100 && by_messier.len() > 100);
+        assert_eq!(set.by_id.0.len(), by_id.len());
+        assert_eq!(set.by_name.0.len(), by_name.len());
+        for (k, &v) in &by_id {
+            assert_eq!(set.by_id.get(k), Some(v), "id {k}");
+        }
+        for (k, &v) in &by_name {
+            assert_eq!(set.by_name.get(k), Some(v), "name {k}");
+        }
+        for m in 0..=255u8 {
+            assert_eq!(set.by_messier[m as usize], by_messier.get(&m).copied(), "M{m}");
+        }
+        for absent in ["", "ngc", "ngc99999", "zzzz", "\u{e9}"] {
+            assert_eq!(set.by_id.get(absent), by_id.get(absent).copied());
+            assert_eq!(set.by_name.get(absent), by_name.get(absent).copied());
+        }
     }
-    DsoSet { cat, index, small, large, by_id, by_messier, by_name }
 }
