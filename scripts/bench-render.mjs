@@ -19,4 +19,4 @@ for (let i = 0; i < Number(rounds); i++) {
   console.log(`round ${i}: native ${(nf / 1e6).toFixed(3)} / ${(nfl / 1e6).toFixed(3)} = ${(nf / nfl).toFixed(2)}   wasm ${(wf / 1e6).toFixed(3)} / ${(wfl / 1e6).toFixed(3)} = ${(wf / wfl).toFixed(2)}   wasm/native ${(wf / nf).toFixed(2)}`);
 }
 const med = (v) => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)].toFixed(2);
-console.log(`median of rounds: native ${med(ratios.native)}, wasm ${med(ratios.wasm)}, wasm/native ${med(ratios.wn)}`);
+console.log(`median of rounds: frame/floor native ${med(ratios.native)}, wasm ${med(ratios.wasm)} (target ≤ 4); render wasm/native ${med(ratios.wn)} (target ≤ 1.3)`);
