@@ -119,6 +119,17 @@ impl SmallPsf {
     }
 }
 
+/// The pixel holding (x, y) and the sub-pixel phase of each axis (inputs
+/// within the frame's reach, so the floors fit in i32).
+#[inline(always)]
+fn cell_and_phases(x: f32, y: f32) -> (i32, i32, usize, usize) {
+    use super::raster::floor_i32;
+    let (ix, iy) = (floor_i32(x), floor_i32(y));
+    let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
+    let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
+    (ix, iy, phx, phy)
+}
+
 /// Where a base-width star's table stamp falls: its first pixel (column,
 /// row; the row may lie above the frame) and the phase of each axis.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -135,13 +146,10 @@ impl SmallPsf {
     /// floors and phases [`stamp_small`] takes); `None` otherwise.
     #[inline]
     pub fn place(&self, x: f32, y: f32, w: usize) -> Option<TablePlace> {
-        use super::raster::floor_i32;
         if !(self.ok && self.nw == 4 && x > -8.0 && y > -8.0 && x < w as f32 + 8.0 && y.abs() < 1e7) {
             return None;
         }
-        let (ix, iy) = (floor_i32(x), floor_i32(y));
-        let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
-        let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
+        let (ix, iy, phx, phy) = cell_and_phases(x, y);
         let x0 = ix + self.off[phx];
         if x0 < 0 || x0 as usize + 4 > w {
             return None;
@@ -182,13 +190,10 @@ pub(crate) fn stamp_table(cv: &mut Canvas, at: TablePlace, flux: f32, colour: [f
 /// Stamps a base-width star from the phase tables (rows clipped to `rows`).
 #[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn stamp_small(cv: &mut Canvas, x: f32, y: f32, flux: f32, colour: [f32; 3], rows: (usize, usize), p: &SmallPsf) {
-    use super::raster::floor_i32;
     if !(x > -8.0 && y > -8.0 && x < cv.w as f32 + 8.0 && y < cv.h as f32 + 8.0) {
         return;
     }
-    let (ix, iy) = (floor_i32(x), floor_i32(y));
-    let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
-    let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
+    let (ix, iy, phx, phy) = cell_and_phases(x, y);
     let luts = cv.luts;
     let w4 = cv.w * 4;
     let wx = &p.w[phx];
