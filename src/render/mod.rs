@@ -447,10 +447,13 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
             continue;
         }
         // y is within the field's reach of the centre, so the integer floors fit in i32.
-        let y0 = (raster::floor_i32(y - r).max(0) as usize).min(h - 1);
-        let y1 = (raster::floor_i32(y + r) + 1).clamp(1, h as i32) as u32;
+        // The rows the stamp draws: from the weight tables' phase for base-width stars.
+        let fits = small.fits(look);
+        let (a, b) = if fits { small.rows(y) } else { stars::stamp_span(y, r) };
+        let y0 = (a.max(0) as usize).min(h - 1);
+        let y1 = b.clamp(1, h as i32) as u32;
         count[y0 + 1] += 1;
-        let table = if small.fits(look) { small.place(x, y, w) } else { None };
+        let table = if fits { small.place(x, y, w) } else { None };
         tmp.push(PreparedStar { x, y, look, colour, y0: y0 as u32, y1, table });
     }
     for i in 0..h {
