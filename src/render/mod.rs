@@ -406,9 +406,9 @@ struct PreparedStar {
     y: f32,
     look: stars::StarLook,
     colour: [f32; 3],
-    /// Rows the stamp covers: [y0, y1).
-    y0: u32,
-    y1: u32,
+    /// Rows the stamp covers: [y0, y1) (frames are at most 8192 rows).
+    y0: u16,
+    y1: u16,
     /// Where the base-width weight tables place it, when its rows lie whole
     /// inside the frame (most stars): drawn by [`stars::stamp_table`].
     table: Option<stars::TablePlace>,
@@ -447,14 +447,17 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
             continue;
         }
         // y is within the field's reach of the centre, so the integer floors fit in i32.
-        // The rows the stamp draws: from the weight tables' phase for base-width stars.
-        let fits = small.fits(look);
-        let (a, b) = if fits { small.rows(y) } else { stars::stamp_span(y, r) };
+        // The rows the stamp draws (from the weight tables' phase for base-width stars).
+        let (a, b, table) = if small.fits(look) {
+            small.place(x, y, w)
+        } else {
+            let (a, b) = stars::stamp_span(y, r);
+            (a, b, None)
+        };
         let y0 = (a.max(0) as usize).min(h - 1);
-        let y1 = b.clamp(1, h as i32) as u32;
+        let y1 = b.clamp(1, h as i32) as u16;
         count[y0 + 1] += 1;
-        let table = if fits { small.place(x, y, w) } else { None };
-        tmp.push(PreparedStar { x, y, look, colour, y0: y0 as u32, y1, table });
+        tmp.push(PreparedStar { x, y, look, colour, y0: y0 as u16, y1, table });
     }
     for i in 0..h {
         count[i + 1] += count[i];

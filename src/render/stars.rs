@@ -139,15 +139,6 @@ impl SmallPsf {
     pub fn fits(&self, look: StarLook) -> bool {
         self.ok && look.sigma_px == self.sigma
     }
-
-    /// The rows [a, b) the table draws for a star centred at row coordinate
-    /// `y` (its phase, not `y` itself, decides them; `y` within the frame's reach).
-    #[inline]
-    pub fn rows(&self, y: f32) -> (i32, i32) {
-        let (_, iy, _, phy) = cell_and_phases(0.0, y);
-        let a = iy + self.off[phy];
-        (a, a + self.n[phy] as i32)
-    }
 }
 
 /// The pixel holding (x, y) and the sub-pixel phase of each axis (inputs
@@ -162,30 +153,35 @@ fn cell_and_phases(x: f32, y: f32) -> (i32, i32, usize, usize) {
 }
 
 /// Where a base-width star's table stamp falls: its first pixel (column,
-/// row; the row may lie above the frame) and the phase of each axis.
+/// row; the row may lie above the frame) and the phase of each axis. Frames
+/// are at most `MAX_SIDE_PX` (8192) a side, so 16 bits hold the pixel.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub(crate) struct TablePlace {
-    x0: u32,
-    y_first: i32,
+    x0: u16,
+    y_first: i16,
     phx: u8,
     phy: u8,
 }
 
 impl SmallPsf {
-    /// The table placement of a star centred at (x, y) in a frame `w` pixels
-    /// wide, when its rows run four pixels wide inside the frame (the same
-    /// floors and phases [`stamp_small`] takes); `None` otherwise.
-    #[inline]
-    pub fn place(&self, x: f32, y: f32, w: usize) -> Option<TablePlace> {
-        if !(self.ok && self.nw == 4 && x > -8.0 && y > -8.0 && x < w as f32 + 8.0 && y.abs() < 1e7) {
-            return None;
-        }
+    /// For a base-width star centred at (x, y) (within the field's reach of
+    /// the frame) in a frame `w` pixels wide: the rows [a, b) its stamp
+    /// draws (its phase, not y itself, decides them), and its table
+    /// placement when its rows run four pixels wide inside the frame (the
+    /// same floors and phases [`stamp_small`] takes), else `None`.
+    #[inline(always)]
+    pub fn place(&self, x: f32, y: f32, w: usize) -> (i32, i32, Option<TablePlace>) {
         let (ix, iy, phx, phy) = cell_and_phases(x, y);
+        let a = iy.saturating_add(self.off[phy]);
+        let b = a.saturating_add(self.n[phy] as i32);
+        if !(self.ok && self.nw == 4 && x > -8.0 && y > -8.0 && x < w as f32 + 8.0 && y < 30_000.0 && w <= u16::MAX as usize) {
+            return (a, b, None);
+        }
         let x0 = ix + self.off[phx];
         if x0 < 0 || x0 as usize + 4 > w {
-            return None;
+            return (a, b, None);
         }
-        Some(TablePlace { x0: x0 as u32, y_first: iy + self.off[phy], phx: phx as u8, phy: phy as u8 })
+        (a, b, Some(TablePlace { x0: x0 as u16, y_first: a as i16, phx: phx as u8, phy: phy as u8 }))
     }
 }
 
