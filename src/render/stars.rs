@@ -58,7 +58,8 @@ fn cdf_table() -> &'static [f32; CDF_N + 1] {
 #[inline(always)]
 fn cdf(tab: &[f32; CDF_N + 1], t: f32) -> f32 {
     let u = ((t + CDF_SPAN) * (CDF_N as f32 / (2.0 * CDF_SPAN))).clamp(0.0, CDF_N as f32 - 0.001);
-    let i = (u as usize) & (CDF_N - 1);
+    // u ≥ 0: through i32, the cheaper conversion, to the same index.
+    let i = (u as i32 as usize) & (CDF_N - 1);
     let f = u - i as f32;
     tab[i] + (tab[i + 1] - tab[i]) * f
 }
@@ -141,15 +142,18 @@ impl SmallPsf {
     }
 }
 
-/// The pixel holding (x, y) and the sub-pixel phase of each axis (inputs
-/// within the frame's reach, so the floors fit in i32).
+/// The pixel holding (x, y) and the sub-pixel phase of each axis: one
+/// floor of the position in 1/64 px a coordinate (times 64 is exact in
+/// floats, so its floor is 64·⌊x⌋ plus the phase ⌊64·frac x⌋). Float to
+/// integer conversions are the costliest steps of placing a star, in wasm
+/// most of all. Inputs within the frame's reach (|x| < 2²⁵, so the floors
+/// fit in i32).
 #[inline(always)]
 fn cell_and_phases(x: f32, y: f32) -> (i32, i32, usize, usize) {
     use super::raster::floor_i32;
-    let (ix, iy) = (floor_i32(x), floor_i32(y));
-    let phx = (((x - ix as f32) * PHASES as f32) as usize).min(PHASES - 1);
-    let phy = (((y - iy as f32) * PHASES as f32) as usize).min(PHASES - 1);
-    (ix, iy, phx, phy)
+    const _: () = assert!(PHASES == 64);
+    let (qx, qy) = (floor_i32(x * PHASES as f32), floor_i32(y * PHASES as f32));
+    (qx >> 6, qy >> 6, (qx & 63) as usize, (qy & 63) as usize)
 }
 
 /// Where a base-width star's table stamp falls: its first pixel (column,
