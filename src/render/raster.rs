@@ -310,16 +310,43 @@ pub(crate) fn ceil_f(v: f32) -> f32 {
     -floor_f(-v)
 }
 
-/// Floor of a float as i32 without a libm call (inputs are pixel coordinates).
+/// Floor of a float as i32, saturating (NaN gives 0), without a libm call:
+/// wasm has a floor instruction; the x86-64 baseline has none, so there it
+/// is the truncation, one less when that rounded up.
+#[cfg(target_arch = "wasm32")]
+#[inline(always)]
+pub(crate) fn floor_i32(v: f32) -> i32 {
+    v.floor() as i32
+}
+
+/// See the wasm form above: the same value for every input.
+#[cfg(not(target_arch = "wasm32"))]
 #[inline(always)]
 pub(crate) fn floor_i32(v: f32) -> i32 {
     let i = v as i32;
-    if (i as f32) > v { i - 1 } else { i }
+    if (i as f32) > v { i.saturating_sub(1) } else { i }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// `floor_i32` is the saturating integer floor: over pixel coordinates in
+    /// 1/64 steps, values next to every integer, the extremes and NaN.
+    #[test]
+    fn floor_i32_is_the_saturating_floor() {
+        // Rust float-to-int casts saturate, and take NaN to 0.
+        let want = |v: f32| libm::floorf(v) as i32 as i64;
+        let mut vals: Vec<f32> = (-70_000..70_000).map(|k| k as f32 / 64.0).collect();
+        for k in [-3i32, -1, 0, 1, 2, 1000, 8_388_607, 16_777_215] {
+            let f = k as f32;
+            vals.extend([f, f32::from_bits(f.to_bits() + 1), f32::from_bits(f.to_bits().wrapping_sub(1)), -f]);
+        }
+        vals.extend([3e9, -3e9, 2_147_483_648.0, -2_147_483_648.0, f32::MAX, f32::MIN, f32::INFINITY, f32::NEG_INFINITY, f32::NAN, -0.0, 1e-30, -1e-30]);
+        for v in vals {
+            assert_eq!(floor_i32(v) as i64, want(v), "{v:e}");
+        }
+    }
 
     /// Every byte decodes and encodes back to itself, so adding zero light
     /// (the stamps' and the rim's branch-free paths) leaves a pixel as it is.
