@@ -66,9 +66,12 @@ pub(crate) use add_row;
 
 /// Adds `colour · kept(ky · w[i])` to the four RGBA8 pixels of `p`
 /// (use [`add4!`], which also covers wasm).
+///
+/// `LANES` (3 or 4): how many of the four pixels to write; the caller
+/// passes 3 when the fourth weight is zero (its bytes would stay as they are).
 #[cfg(target_arch = "x86_64")]
 #[inline(always)]
-pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3], luts: &Luts, bg: &Background) {
+pub(crate) fn add4_fn<const LANES: usize>(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3], luts: &Luts, bg: &Background) {
     use core::arch::x86_64::*;
     let (s2l, l2s) = (&luts.s2l, &luts.l2s);
     // Four background pixels decode to the background's light.
@@ -89,7 +92,7 @@ pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3],
             let q = _mm_add_ps(_mm_mul_ps(lin, _mm_set1_ps(4095.0)), _mm_set1_ps(8_388_608.0));
             let mut idx = [0u32; 4];
             _mm_storeu_si128(idx.as_mut_ptr() as *mut __m128i, _mm_castps_si128(q));
-            for (j, i) in idx.iter().enumerate() {
+            for (j, i) in idx.iter().enumerate().take(LANES) {
                 p[4 * j + ch] = l2s[(i & 4095) as usize];
             }
         }
@@ -101,7 +104,10 @@ pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3],
 /// the intrinsics inline, and one with it is not always inlined).
 #[cfg(target_arch = "wasm32")]
 macro_rules! add4 {
-    ($p:expr, $w:expr, $ky:expr, $colour:expr, $luts:expr, $bg:expr) => {{
+    ($p:expr, $w:expr, $ky:expr, $colour:expr, $luts:expr, $bg:expr) => {
+        $crate::render::lanes::add4!($p, $w, $ky, $colour, $luts, $bg; 4)
+    };
+    ($p:expr, $w:expr, $ky:expr, $colour:expr, $luts:expr, $bg:expr; $lanes:literal) => {{
         use core::arch::wasm32::*;
         let p: &mut [u8; 16] = $p;
         let w: &[f32; 4] = $w;
@@ -125,7 +131,9 @@ macro_rules! add4 {
             p[ch] = l2s[u32x4_extract_lane::<0>(idx) as usize & 4095];
             p[4 + ch] = l2s[u32x4_extract_lane::<1>(idx) as usize & 4095];
             p[8 + ch] = l2s[u32x4_extract_lane::<2>(idx) as usize & 4095];
-            p[12 + ch] = l2s[u32x4_extract_lane::<3>(idx) as usize & 4095];
+            if $lanes > 3 {
+                p[12 + ch] = l2s[u32x4_extract_lane::<3>(idx) as usize & 4095];
+            }
         }
     }};
 }
@@ -134,15 +142,18 @@ macro_rules! add4 {
 #[cfg(not(target_arch = "wasm32"))]
 macro_rules! add4 {
     ($p:expr, $w:expr, $ky:expr, $colour:expr, $luts:expr, $bg:expr) => {
-        $crate::render::lanes::add4_fn($p, $w, $ky, $colour, $luts, $bg)
+        $crate::render::lanes::add4_fn::<4>($p, $w, $ky, $colour, $luts, $bg)
+    };
+    ($p:expr, $w:expr, $ky:expr, $colour:expr, $luts:expr, $bg:expr; $lanes:literal) => {
+        $crate::render::lanes::add4_fn::<$lanes>($p, $w, $ky, $colour, $luts, $bg)
     };
 }
 pub(crate) use add4;
 
 #[cfg(not(any(target_arch = "x86_64", target_arch = "wasm32")))]
 #[inline(always)]
-pub(crate) fn add4_fn(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3], luts: &Luts, _bg: &Background) {
-    for (p, w) in p.chunks_exact_mut(4).zip(w.iter()) {
+pub(crate) fn add4_fn<const LANES: usize>(p: &mut [u8; 16], w: &[f32; 4], ky: f32, colour: [f32; 3], luts: &Luts, _bg: &Background) {
+    for (p, w) in p.chunks_exact_mut(4).zip(w.iter()).take(LANES) {
         super::raster::add_px(p, &luts.s2l, &luts.l2s, colour, kept(ky * w));
     }
 }
@@ -392,6 +403,16 @@ mod tests {
                             add_px(p, &luts.s2l, &luts.l2s, c, kept(ky * w));
                         }
                         assert_eq!(a, b, "colour {c:?} ky {ky} w {w:?}");
+                        // Three lanes written, the fourth's weight zero: the same bytes.
+                        let w3 = [w[0], w[1], w[2], 0.0];
+                        let (mut a3, mut b3) = (a.clone(), a.clone());
+                        if let Ok(g) = <&mut [u8; 16]>::try_from(&mut a3[..16]) {
+                            add4!(g, &w3, ky, c, luts, &bg; 3);
+                        }
+                        for (p, w) in b3.chunks_exact_mut(4).zip(w3.iter()) {
+                            add_px(p, &luts.s2l, &luts.l2s, c, kept(ky * w));
+                        }
+                        assert_eq!(a3, b3, "three lanes: colour {c:?} ky {ky} w {w3:?}");
                         n += 1;
                     }
                 }

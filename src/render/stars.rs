@@ -210,6 +210,17 @@ pub(crate) fn stamp_table(cv: &mut Canvas, at: TablePlace, flux: f32, colour: [f
     };
     let wy = &p.w[phy];
     let mut at_px = (at.y_first as i64 + j0 as i64) as usize * w4 + at.x0 as usize * 4;
+    // Most phases light three columns: the fourth pixel, whose weight is
+    // zero, is then left alone rather than written back unchanged.
+    if p.n[phx] <= 3 {
+        for &wyj in &wy[j0..j1] {
+            if let Some(Ok(seg)) = cv.px.get_mut(at_px..at_px + 16).map(<&mut [u8; 16]>::try_from) {
+                add4!(seg, wx, wyj * flux, colour, luts, &cv.bg; 3);
+            }
+            at_px += w4;
+        }
+        return;
+    }
     for &wyj in &wy[j0..j1] {
         if let Some(Ok(seg)) = cv.px.get_mut(at_px..at_px + 16).map(<&mut [u8; 16]>::try_from) {
             add4!(seg, wx, wyj * flux, colour, luts, &cv.bg);
