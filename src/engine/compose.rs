@@ -225,12 +225,12 @@ pub fn display_sky_mu(natural_mu: f64) -> f64 {
 }
 
 /// Twilight or daylight at the site, nL: none once the Sun is 18° down (astronomical
-/// night), else the planner's rough twilight term (`plan::sky_brightness::twilight_nl`).
+/// night), else the rough twilight term shared with the planner (`sky::brightness::twilight_nl`).
 pub fn twilight_nl_at(sun_alt_rad: f64) -> f64 {
     if !(sun_alt_rad > (-18.0f64).to_radians()) {
         return 0.0;
     }
-    crate::plan::sky_brightness::twilight_nl(sun_alt_rad)
+    crate::sky::brightness::twilight_nl(sun_alt_rad)
 }
 
 /// The catalogued mean surface brightness (OpenNGC, mostly B band), or, where the
@@ -363,16 +363,13 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
                     BodyId::Moon => {
                         moon_alt_rad = Some(h.alt_rad);
                         moon_phase_deg = st.phase_angle_rad.to_degrees();
-                        if h.alt_rad > 0.0 {
-                            let half_pi = std::f64::consts::FRAC_PI_2;
-                            moon_nl = crate::scene::skylight::moonlight_nl(
-                                st.phase_angle_rad,
-                                separation_rad(st.topocentric, aim.apparent),
-                                half_pi - h.alt_rad,
-                                (half_pi - horizontal.alt_rad).max(0.0),
-                                crate::scene::compose::MOONLIGHT_K_MAG,
-                            );
-                        }
+                        moon_nl = crate::sky::brightness::moonlight_nl(
+                            st.phase_angle_rad,
+                            separation_rad(st.topocentric, aim.apparent),
+                            h.alt_rad,
+                            horizontal.alt_rad,
+                            crate::scene::compose::MOONLIGHT_K_MAG,
+                        );
                     }
                     _ => {}
                 }
