@@ -32,6 +32,8 @@ pub(crate) struct Track {
     pub az_rad: Vec<f64>,
     pub moon_sep_deg: Vec<f64>,
     pub sun_sep_deg: Vec<f64>,
+    /// Sky at the target, V mag/arcsec² (`sky::brightness`, what the verdicts use).
+    pub sky_mu: Vec<f64>,
     /// In clear view (above the mask) at each step, before any clouds.
     pub clear: Vec<bool>,
     /// Per station: chosen framing (None: no train may show it).
@@ -52,6 +54,14 @@ pub struct Prepared {
     pub moon_waxing: bool,
     pub moon_distance_km: f64,
     pub(crate) tracks: Vec<Track>,
+}
+
+impl Prepared {
+    /// The sky at target `target` (index in `input.targets`) at step `step`, V mag/arcsec²:
+    /// the one sky model (`sky::brightness`) at the planner's geometry, as its verdicts use it.
+    pub fn sky_mu(&self, target: usize, step: usize) -> Option<f64> {
+        self.tracks.get(target)?.sky_mu.get(step).copied()
+    }
 }
 
 fn interp_track(points: &[TrackPoint], jd: f64) -> Equatorial {
@@ -299,7 +309,7 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
             frames.push(f);
             views.push(v);
         }
-        tracks.push(Track { alt_rad: alt, az_rad: az, moon_sep_deg: msep, sun_sep_deg: ssep, clear, frames, views });
+        tracks.push(Track { alt_rad: alt, az_rad: az, moon_sep_deg: msep, sun_sep_deg: ssep, sky_mu, clear, frames, views });
     }
     Ok(Prepared {
         input: input.clone(),
