@@ -3,6 +3,7 @@
 use nightfield::plan::framing::*;
 use nightfield::plan::height::*;
 use nightfield::plan::sky_brightness::*;
+use nightfield::sky::brightness::*;
 use nightfield::plan::talking_points::*;
 use nightfield::plan::*;
 
@@ -95,13 +96,14 @@ fn moonlight_krisciunas_schaefer() {
     assert!((cd / crumey - 1.0).abs() < 0.02, "{cd} {crumey}");
     // Full Moon at 60° altitude, target at the zenith (30° away), k = 0.172 (K&S's Mauna Kea value):
     // the sky brightens to about 18 mag/arcsec² (common practice: "about 18 under a full Moon").
-    let s = SkyAt { zenith_mu: 21.6, k_mag: 0.172, target_alt_rad: 90f64.to_radians(), sun_alt_rad: -0.6, moon_alt_rad: 60f64.to_radians(), moon_phase_angle_deg: 0.0, moon_sep_deg: 30.0 };
-    let mu = sky_mu_at(&s);
+    let s = SkyAt { zenith_mu: 21.6, k_mag: 0.172, target_alt_rad: 90f64.to_radians(), sun_alt_rad: -0.6, moon_alt_rad: 60f64.to_radians(), moon_phase_angle_rad: 0.0, moon_separation_rad: 30f64.to_radians() };
+    let mu = sky_mu(&s);
     assert!((17.3..18.8).contains(&mu), "{mu}");
     // Moon below the horizon adds nothing; a thinner Moon adds less; closer to the Moon is brighter.
-    assert_eq!(moonlight_nl(0.0, 30.0, -0.1, 1.0, 0.2), 0.0);
-    assert!(moonlight_nl(90.0, 30.0, 1.0, 1.0, 0.2) < moonlight_nl(0.0, 30.0, 1.0, 1.0, 0.2));
-    assert!(moonlight_nl(0.0, 20.0, 1.0, 1.0, 0.2) > moonlight_nl(0.0, 60.0, 1.0, 1.0, 0.2));
+    let d = |deg: f64| deg.to_radians();
+    assert_eq!(moonlight_nl(0.0, d(30.0), -0.1, 1.0, 0.2), 0.0);
+    assert!(moonlight_nl(d(90.0), d(30.0), 1.0, 1.0, 0.2) < moonlight_nl(0.0, d(30.0), 1.0, 1.0, 0.2));
+    assert!(moonlight_nl(0.0, d(20.0), 1.0, 1.0, 0.2) > moonlight_nl(0.0, d(60.0), 1.0, 1.0, 0.2));
     // Dark sky: brighter towards the horizon (van Rhijn-type gradient in K&S eq. 2).
     assert!(dark_sky_nl(21.6, 20f64.to_radians(), 0.2) > dark_sky_nl(21.6, 90f64.to_radians(), 0.2));
     // The scale classes are ordered.

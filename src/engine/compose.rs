@@ -91,7 +91,8 @@ pub struct Composed {
     pub sun_separation_rad: Option<f64>,
     pub moon_alt_rad: Option<f64>,
     pub mag_limit: f32,
-    /// The sky as nature makes it at the target (dark sky, moonlight, twilight), V mag/arcsec²;
+    /// The sky as nature makes it at the target (the site's dark sky brightened with air
+    /// mass, moonlight, twilight: `sky::brightness`, as the planner), V mag/arcsec²;
     /// `scene.sky` holds the sky as drawn (see [`display_sky_mu`]).
     pub natural_sky_mag_arcsec2: f64,
 }
@@ -224,15 +225,6 @@ pub fn display_sky_mu(natural_mu: f64) -> f64 {
     KNEE - 0.15 * (KNEE - natural_mu)
 }
 
-/// Twilight or daylight at the site, nL: none once the Sun is 18° down (astronomical
-/// night), else the planner's rough twilight term (`plan::sky_brightness::twilight_nl`).
-pub fn twilight_nl_at(sun_alt_rad: f64) -> f64 {
-    if !(sun_alt_rad > (-18.0f64).to_radians()) {
-        return 0.0;
-    }
-    crate::plan::sky_brightness::twilight_nl(sun_alt_rad)
-}
-
 /// The catalogued mean surface brightness (OpenNGC, mostly B band), or, where the
 /// catalogue has none, the integrated magnitude spread over the outline:
 /// μ = m + 2.5 log10(area in arcsec²) (the definition of a mean surface brightness).
@@ -277,15 +269,15 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
         mount: Default::default(),
     });
     // The sky: the site's dark sky plus twilight or daylight from the Sun's altitude
-    // (the planner's rough twilight term; low-precision Sun, 0.01°, is plenty for a
-    // brightness), so a daytime or dusk view is drawn washed out and shallow, as it is.
+    // (the twilight term shared with the planner; low-precision Sun, 0.01°, is plenty
+    // for a brightness), so a daytime or dusk view is drawn washed out and shallow, as it is.
     let sun_lite = crate::plan::ephem_lite::sun_lite(t.utc_jd);
     let site_trig = crate::plan::ephem_lite::SiteTrig::new(&site);
     let sun_alt_lite = crate::plan::ephem_lite::horizontal(&sun_lite.equ, crate::plan::ephem_lite::lst_rad(t.utc_jd, &site_trig), &site_trig).alt_rad;
-    let twilight_nl = twilight_nl_at(sun_alt_lite);
+    let twilight_nl = crate::sky::brightness::twilight_nl(sun_alt_lite);
     let sky_mu = crate::scene::skylight::sky_with_moon(s.view.sky_mag_arcsec2, twilight_nl).0;
-    // The naked-eye star limit under this sky (Crumey 2014, field factor 2 for a
-    // casual observer) sets how deep the eyepiece reaches.
+    // The naked-eye star limit under this sky at the zenith (Crumey 2014, field factor 2
+    // for a casual observer) sets how deep the eyepiece reaches.
     // (In daylight the eye's limit falls below 0 mag; the optics figures take 0 as their floor.)
     let naked_eye = crate::plan::visibility::naked_eye_limit_mag(sky_mu, 2.0).clamp(0.0, 8.5);
     let cond = Conditions { naked_eye_limit_mag: naked_eye, ..Conditions::default() };
@@ -345,9 +337,10 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
     // The Sun, the Moon and the planets (with phases, rings and Jupiter's moons).
     let mut bodies = Vec::new();
     let (mut sun_alt_rad, mut sun_separation_rad, mut moon_alt_rad) = (None, None, None);
-    let mut moon_nl = 0.0;
-    // Moon's phase angle (180° = new): dims the sky in the verdict; new when unknown.
+    // Moon's phase angle (180° = new) and distance from the target, for the sky and the
+    // verdict; new and far when unknown.
     let mut moon_phase_deg = 180.0;
+    let mut moon_separation = core::f64::consts::PI;
     if let Some(eph) = eph {
         for b in BodyId::ALL {
             scene.add_solar_body(eph, b, &t, &site).map_err(|e| EngineError::Solar(e.to_string()))?;
@@ -363,16 +356,7 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
                     BodyId::Moon => {
                         moon_alt_rad = Some(h.alt_rad);
                         moon_phase_deg = st.phase_angle_rad.to_degrees();
-                        if h.alt_rad > 0.0 {
-                            let half_pi = std::f64::consts::FRAC_PI_2;
-                            moon_nl = crate::scene::skylight::moonlight_nl(
-                                st.phase_angle_rad,
-                                separation_rad(st.topocentric, aim.apparent),
-                                half_pi - h.alt_rad,
-                                (half_pi - horizontal.alt_rad).max(0.0),
-                                crate::scene::compose::MOONLIGHT_K_MAG,
-                            );
-                        }
+                        moon_separation = separation_rad(st.topocentric, aim.apparent);
                     }
                     _ => {}
                 }
@@ -389,8 +373,20 @@ pub fn compose(s: &Scenario, cats: &Catalogs, eph: Option<&Ephemeris>) -> Result
     if !driven {
         scene.set_sidereal_drift();
     }
-    // Moonlight and twilight are both scattered sunlight: one tint (the dark part already holds the twilight).
-    scene.set_sky(s.view.sky_mag_arcsec2, moon_nl + twilight_nl, optics.exit_pupil_mm, cond.eye_pupil_mm);
+    // The sky at the target as the planner computes it (`sky::brightness::sky_nl`): the
+    // site's zenith sky brightened towards the horizon (K&S eq. 2), moonlight, twilight.
+    // Moonlight and twilight are both scattered sunlight: one tint.
+    let sky_here = crate::sky::brightness::sky_nl(&crate::sky::brightness::SkyAt {
+        zenith_mu: s.view.sky_mag_arcsec2,
+        k_mag: VIEW_EXTINCTION_K_MAG,
+        target_alt_rad: horizontal.alt_rad,
+        sun_alt_rad: sun_alt_lite,
+        moon_alt_rad: moon_alt_rad.unwrap_or(-core::f64::consts::FRAC_PI_2),
+        moon_phase_angle_rad: moon_phase_deg.to_radians(),
+        moon_separation_rad: moon_separation,
+    });
+    let dark_here_mu = crate::sky::brightness::nl_to_mu(sky_here.dark);
+    scene.set_sky(dark_here_mu, sky_here.moon + sky_here.twilight, optics.exit_pupil_mm, cond.eye_pupil_mm);
     // Through an eyepiece, each deep-sky glow is drawn as strongly as the planner's
     // verdict for a visitor says (the card and the picture agree); cameras keep the
     // catalogued surface brightness.

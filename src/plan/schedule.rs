@@ -7,6 +7,7 @@ use super::ephem_lite::{self, SiteTrig};
 use super::framing::{best_frame, FrameChoice};
 use super::input::*;
 use super::sky_brightness::{self as skyb, SKY_BV};
+use crate::sky::brightness as skyl;
 use super::visibility::{self as vis, Assessment, Eyepath, ExtendedLight, Verdict};
 use super::PlanError;
 use crate::sky::Equatorial;
@@ -31,6 +32,8 @@ pub(crate) struct Track {
     pub az_rad: Vec<f64>,
     pub moon_sep_deg: Vec<f64>,
     pub sun_sep_deg: Vec<f64>,
+    /// Sky at the target, V mag/arcsec² (`sky::brightness`, what the verdicts use).
+    pub sky_mu: Vec<f64>,
     /// In clear view (above the mask) at each step, before any clouds.
     pub clear: Vec<bool>,
     /// Per station: chosen framing (None: no train may show it).
@@ -51,6 +54,14 @@ pub struct Prepared {
     pub moon_waxing: bool,
     pub moon_distance_km: f64,
     pub(crate) tracks: Vec<Track>,
+}
+
+impl Prepared {
+    /// The sky at target `target` (index in `input.targets`) at step `step`, V mag/arcsec²:
+    /// the one sky model (`sky::brightness`) at the planner's geometry, as its verdicts use it.
+    pub fn sky_mu(&self, target: usize, step: usize) -> Option<f64> {
+        self.tracks.get(target)?.sky_mu.get(step).copied()
+    }
 }
 
 fn interp_track(points: &[TrackPoint], jd: f64) -> Equatorial {
@@ -107,7 +118,7 @@ fn light_of(c: &Candidate, moon_phase_deg: f64) -> Option<ExtendedLight> {
     let bv = c.bv.unwrap_or(bv0);
     let minor = if c.minor_arcmin > 0.0 { c.minor_arcmin } else { c.major_arcmin };
     let mut area = core::f64::consts::FRAC_PI_4 * c.major_arcmin * minor;
-    let vmag = if c.kind == TargetKind::Moon { Some(skyb::moon_vmag(moon_phase_deg)) } else { c.vmag };
+    let vmag = if c.kind == TargetKind::Moon { Some(skyl::moon_vmag(moon_phase_deg.to_radians())) } else { c.vmag };
     if c.kind == TargetKind::Moon {
         area *= (0.5 * (1.0 + libm::cos(moon_phase_deg.to_radians()))).max(0.02);
     }
@@ -197,7 +208,6 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
     let mut moon_alt = Vec::with_capacity(n);
     let mut moon_phase = Vec::with_capacity(n);
     let mut moon_frac = Vec::with_capacity(n);
-    let mut tw_nl = Vec::with_capacity(n);
     let mut waxing = false;
     let mut moon_par = 0.95;
     for i in 0..n {
@@ -212,11 +222,10 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
         moon_equ.push(m.equ);
         moon_phase.push(ph);
         moon_frac.push(fr);
-        tw_nl.push(skyb::twilight_nl(sh.alt_rad));
         waxing = wx;
         moon_par = m.parallax_deg;
     }
-    let zenith_nl = skyb::mu_to_nl(input.sky.zenith_mu());
+    let zenith_mu = input.sky.zenith_mu();
     let k = input.extinction_k_mag;
     let pupil = input.eye_pupil_mm;
     let mid = n / 2;
@@ -257,17 +266,20 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
             alt.push(h.alt_rad);
             az.push(h.az_rad);
         }
-        // Sky at the target at each step (station independent).
+        // Sky at the target at each step (station independent); the Moon adds no
+        // moonlight to its own sky.
         let sky_mu: Vec<f64> = (0..n)
             .map(|i| {
-                let x = skyb::ks_airmass(alt[i]);
-                let dark = zenith_nl * libm::exp(-0.4 * core::f64::consts::LN_10 * k * (x - 1.0)) * x;
-                let moon = if c.kind == TargetKind::Moon {
-                    0.0
-                } else {
-                    skyb::moonlight_nl(moon_phase[i], msep[i], moon_alt[i], alt[i], k)
-                };
-                skyb::nl_to_mu(dark + moon + tw_nl[i])
+                let l = skyl::sky_nl(&skyl::SkyAt {
+                    zenith_mu,
+                    k_mag: k,
+                    target_alt_rad: alt[i],
+                    sun_alt_rad: sun_alt[i],
+                    moon_alt_rad: moon_alt[i],
+                    moon_phase_angle_rad: moon_phase[i].to_radians(),
+                    moon_separation_rad: msep[i].to_radians(),
+                });
+                skyl::nl_to_mu(if c.kind == TargetKind::Moon { l.dark + l.twilight } else { l.total() })
             })
             .collect();
         // Reference step for framing: highest clear step (or the highest step).
@@ -297,7 +309,7 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
             frames.push(f);
             views.push(v);
         }
-        tracks.push(Track { alt_rad: alt, az_rad: az, moon_sep_deg: msep, sun_sep_deg: ssep, clear, frames, views });
+        tracks.push(Track { alt_rad: alt, az_rad: az, moon_sep_deg: msep, sun_sep_deg: ssep, sky_mu, clear, frames, views });
     }
     Ok(Prepared {
         input: input.clone(),

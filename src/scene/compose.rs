@@ -119,8 +119,7 @@ pub fn compose(inp: &ComposeInput) -> Result<Scene, ComposeError> {
         let moon = solar::body_apparent(eph, BodyId::Moon, &inp.instant, &inp.site)?;
         let mh = to_horizontal(moon.topocentric, &inp.site, &inp.instant);
         let sep = libm::acos(unit(moon.topocentric).dot(c).clamp(-1.0, 1.0));
-        let half_pi = core::f64::consts::FRAC_PI_2;
-        moon_nl = super::skylight::moonlight_nl(moon.phase_angle_rad, sep, half_pi - mh.alt_rad, (half_pi - hz.alt_rad).max(0.0), MOONLIGHT_K_MAG);
+        moon_nl = crate::sky::brightness::moonlight_nl(moon.phase_angle_rad, sep, mh.alt_rad, hz.alt_rad, MOONLIGHT_K_MAG);
     }
     scene.set_sky(inp.dark_sky_mag_arcsec2, moon_nl, fig.exit_pupil_mm, inp.conditions.eye_pupil_mm);
     if let Some(t) = inp.target_label {

@@ -1,10 +1,12 @@
 //! The sky core: coordinates, frames, apparent places, horizon coordinates,
-//! catalogs and their spatial index, target search.
+//! the sky's own brightness (moonlight, twilight), catalogs and their spatial
+//! index, target search.
 //!
 //! Shared value types live here so every module speaks the same units:
 //! radians inside, degrees only at the edges (JSON, words).
 
 pub mod apparent;
+pub mod brightness;
 pub mod catalog;
 pub mod darkness;
 pub mod dso;

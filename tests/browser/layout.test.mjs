@@ -1,6 +1,7 @@
 // Every tab at phone size (field and night themes) and at desktop size: touch targets of at
 // least 44 px, nothing wider than the screen, all six tabs on screen, and in night mode no
-// colour with more than a trace of green or blue anywhere on the page.
+// colour with more than a trace of green or blue anywhere on the page (form controls'
+// placeholders, accents and option lists included).
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { openBrowser, gotoReady, PHONE, DESKTOP } from './harness.mjs';
@@ -30,6 +31,22 @@ function audit(night) {
       for (const c of [st.color, st.backgroundColor, st.borderTopColor, st.outlineColor]) {
         const m = /rgba?\((\d+), (\d+), (\d+)(?:, ([\d.]+))?\)/.exec(c);
         if (!m || m[4] === '0') continue;
+        if (+m[2] > 0x30 || +m[3] > 0x30) { out.push(`not red: ${c} on ${name(e)}`); break; }
+      }
+    }
+    // Form controls: what the browser draws from them besides the box (the placeholder,
+    // the accent of checkboxes, radios and sliders, the option list of a closed select,
+    // which the loop above skips as not shown).
+    for (const e of document.querySelectorAll('input, select, textarea, option, optgroup')) {
+      const inList = e.tagName === 'OPTION' || e.tagName === 'OPTGROUP';
+      if (!inList && !shown(e)) continue;
+      const st = getComputedStyle(e);
+      const parts = inList ? [st.color, st.backgroundColor] : [st.accentColor, st.caretColor, getComputedStyle(e, '::placeholder').color];
+      if (!inList && !/dark/.test(st.colorScheme)) out.push(`not a dark color-scheme (${st.colorScheme}) on ${name(e)}`);
+      for (const c of parts) {
+        const m = /rgba?\((\d+), (\d+), (\d+)(?:, ([\d.]+))?\)/.exec(c);
+        if (!m) { out.push(`not red: ${c} on ${name(e)}`); break; }
+        if (m[4] === '0') continue;
         if (+m[2] > 0x30 || +m[3] > 0x30) { out.push(`not red: ${c} on ${name(e)}`); break; }
       }
     }
