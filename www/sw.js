@@ -1,7 +1,7 @@
 // Nightfield service worker: precache the shell, the wasm engine and the catalogs in one
 // versioned cache; serve from it first so the app works with no network after one visit.
 // A new VERSION installs beside the old one and waits until the page says "reload now".
-const VERSION = '0.1.0-4';
+const VERSION = '0.1.0-5';
 const CACHE = `nightfield-${VERSION}`;
 
 self.addEventListener('install', (event) => {
