@@ -233,6 +233,8 @@ struct Scratch {
     /// they came from (see [`star_look_memo`]).
     memo: Vec<StarMemo>,
     memo_key: (u32, u32, bool),
+    /// Star weight tables by width, kept while the pixel ratio stays.
+    psf: stars::PsfTables,
 }
 
 #[derive(Clone, Copy)]
@@ -275,9 +277,9 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     let mut cv = raster::Canvas::new(view.width_px as usize, view.height_px as usize, &mut frame.rgba);
     let sky8 = raster::to_rgba8(pal.map(background::sky_colour(&scene.sky)));
     cv.bg = lanes::Background::new(sky8, cv.luts);
-    let small = stars::SmallPsf::new(view.dpr);
-    prepare_stars(scene, &t, view.dpr, &pal, (cv.w, cv.h), &small, sc);
-    let Scratch { stars, wx, .. } = sc;
+    sc.psf.ready(view.dpr);
+    prepare_stars(scene, &t, view.dpr, &pal, (cv.w, cv.h), sc);
+    let Scratch { stars, wx, psf, .. } = sc;
     let edge = match &scene.field {
         FieldEdge::Circle { radius_rad } => Some(markers::CircleEdge::new(*radius_rad, &t, view.dpr, &pal)),
         FieldEdge::Polygon { .. } => None,
@@ -324,7 +326,7 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
             next += 1;
         }
         ready_to(&mut cv, need);
-        stamp_stars(&mut cv, &stars[first..next], &small, wx);
+        stamp_stars(&mut cv, &stars[first..next], psf, wx);
         bodies::draw_bodies(&mut cv, scene, &t, view.dpr, &pal, rows);
         markers::field_mask(&mut cv, scene, &t, view.dpr, &pal, rows, edge.as_ref());
         y = rows.1;
@@ -349,14 +351,17 @@ fn band_end(y: usize, h: usize) -> usize {
 /// Stamps `stars` (their bands readied), each clipped to the bands its rows
 /// [y0, y1) fall in. In wasm compiled with simd128, so the stamps inline here.
 #[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
-fn stamp_stars(cv: &mut raster::Canvas, list: &[PreparedStar], small: &stars::SmallPsf, wx: &mut Vec<f32>) {
+fn stamp_stars(cv: &mut raster::Canvas, list: &[PreparedStar], psf: &stars::PsfTables, wx: &mut Vec<f32>) {
     let h = cv.h;
+    let Some(base) = psf.base() else {
+        return;
+    };
     for s in list {
         let clip = (band_start(s.y0 as usize), band_end(s.y1 as usize, h));
-        if let Some(at) = s.table {
-            stars::stamp_table(cv, at, s.look.flux, s.colour, clip, small);
-        } else if small.fits(s.look) {
-            stars::stamp_small(cv, s.x, s.y, s.look.flux, s.colour, clip, small);
+        if let Some((at, t)) = s.table.and_then(|at| Some((at, psf.get(at.k)?))) {
+            stars::stamp_table(cv, at, s.look.flux, s.colour, clip, t);
+        } else if base.fits(s.look) {
+            stars::stamp_small(cv, s.x, s.y, s.look.flux, s.colour, clip, base);
         } else {
             stars::stamp(cv, s.x, s.y, s.look, s.colour, clip, wx);
         }
@@ -416,7 +421,7 @@ struct PreparedStar {
 
 /// Stars in view with their pixel position and look, ordered by first row
 /// (a counting sort, stable, so the order is deterministic), into `sc.stars`.
-fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, h): (usize, usize), small: &stars::SmallPsf, sc: &mut Scratch) {
+fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, h): (usize, usize), sc: &mut Scratch) {
     // Cull against the field: nothing outside it survives the mask.
     let reach = scene.field_reach_rad() * t.px_per_rad + 40.0 * dpr as f64;
     let reach2 = (reach * reach) as f32;
@@ -432,6 +437,7 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
         sc.memo.resize(scene.stars.len(), stale);
     }
     let memo = &mut sc.memo;
+    let psf = &mut sc.psf;
     let tmp = &mut sc.unsorted;
     tmp.clear();
     let hf = h as f32;
@@ -447,12 +453,17 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
             continue;
         }
         // y is within the field's reach of the centre, so the integer floors fit in i32.
-        // The rows the stamp draws (from the weight tables' phase for base-width stars).
-        let (a, b, table) = if small.fits(look) {
-            small.place(x, y, w)
-        } else {
-            let (a, b) = stars::stamp_span(y, r);
-            (a, b, None)
+        // The rows the stamp draws: from the weight tables' phase for stars
+        // drawn from them (and base-width stars at the frame's sides, which
+        // `stamp_small` draws from them), else the stamp's own.
+        let placed = psf.index_for(look).and_then(|k| Some((k, psf.get(k)?.place(x, y, w, k))));
+        let (a, b, table) = match placed {
+            Some((_, (a, b, Some(at)))) => (a, b, Some(at)),
+            Some((0, (a, b, None))) => (a, b, None),
+            _ => {
+                let (a, b) = stars::stamp_span(y, r);
+                (a, b, None)
+            }
         };
         let y0 = (a.max(0) as usize).min(h - 1);
         let y1 = b.clamp(1, h as i32) as u16;
