@@ -258,6 +258,15 @@ fn star_look_memo(memo: &mut [StarMemo], i: usize, s: &crate::scene::SceneStar, 
             return (m.look, m.colour);
         }
     }
+    star_look_fresh(memo, i, s, mag_limit, dpr, pal)
+}
+
+/// [`star_look_memo`] when the memo lacks the star: out of line, so that the
+/// loop over stars keeps its registers.
+#[cold]
+#[inline(never)]
+fn star_look_fresh(memo: &mut [StarMemo], i: usize, s: &crate::scene::SceneStar, mag_limit: f32, dpr: f32, pal: &Palette) -> (stars::StarLook, [f32; 3]) {
+    let (vb, bb) = (s.vmag.to_bits(), s.bv.to_bits());
     let look = stars::star_look(s.vmag, mag_limit, dpr);
     let colour = pal.map(colour::star_colour(s.bv));
     if let Some(m) = memo.get_mut(i) {

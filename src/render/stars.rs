@@ -199,14 +199,23 @@ impl PsfTables {
         if !(0..=MAX_TABLE_STEPS as i32).contains(&k) {
             return None;
         }
-        let k = k as usize;
-        if self.list.len() <= k {
-            self.list.resize_with(k + 1, || None);
-        }
-        let t = self.list.get_mut(k)?.get_or_insert_with(|| Box::new(SmallPsf::with_sigma(look.sigma_px)));
+        let t = match self.list.get(k as usize) {
+            Some(Some(t)) => t,
+            _ => self.build(k as usize, look.sigma_px)?,
+        };
         // [`SmallPsf::place`] tells which stars the table draws (rows four
         // pixels wide inside the frame).
         (t.ok && t.sigma == look.sigma_px).then_some(k as u8)
+    }
+
+    /// Builds table `k` (out of line: once a width and pixel ratio).
+    #[cold]
+    #[inline(never)]
+    fn build(&mut self, k: usize, sigma: f32) -> Option<&SmallPsf> {
+        if self.list.len() <= k {
+            self.list.resize_with(k + 1, || None);
+        }
+        Some(self.list.get_mut(k)?.get_or_insert_with(|| Box::new(SmallPsf::with_sigma(sigma))))
     }
 
     /// Table `k` (from [`PsfTables::index_for`]).
