@@ -28,6 +28,7 @@ pub(crate) fn kept(k: f32) -> f32 {
 /// needs no table reads to decode.
 #[derive(Clone, Copy, Debug)]
 pub(crate) struct Background {
+    pub rgba: [u8; 4],
     pub word4: u128,
     pub lin: [f32; 3],
 }
@@ -35,7 +36,7 @@ pub(crate) struct Background {
 impl Background {
     pub fn new(rgba: [u8; 4], luts: &Luts) -> Background {
         let w = u32::from_ne_bytes(rgba) as u128;
-        Background { word4: w | w << 32 | w << 64 | w << 96, lin: [luts.s2l[rgba[0] as usize], luts.s2l[rgba[1] as usize], luts.s2l[rgba[2] as usize]] }
+        Background { rgba, word4: w | w << 32 | w << 64 | w << 96, lin: [luts.s2l[rgba[0] as usize], luts.s2l[rgba[1] as usize], luts.s2l[rgba[2] as usize]] }
     }
 }
 
@@ -174,8 +175,10 @@ pub(crate) fn add4_fn<const LANES: usize>(p: &mut [u8; 16], w: &[f32; 4], ky: f3
 ///   one lookup (`Luts::q2l`), as the byte itself is not stored.
 ///
 /// Four pixels still holding the frame's background decode to its light
-/// without table reads.
-#[derive(Clone, Copy, Debug)]
+/// without table reads; and when a pixel holds the background (nearly every
+/// pixel of the edge: stars seldom sit on it), its shading is read from
+/// [`RimPlain`], by its distance from the edge to 1/1024 px.
+#[derive(Clone, Debug)]
 pub(crate) struct RimShade {
     /// Edge centre x and radius, px.
     pub cx: f32,
@@ -190,14 +193,103 @@ pub(crate) struct RimShade {
     /// Whether a full blend to `out` gives the outside colour's bytes from
     /// every byte ([`full_blend_is_fill`]).
     pub fill: bool,
+    /// The shading of a pixel holding the background `bg`.
+    pub plain: RimPlain,
 }
 
 impl RimShade {
-    /// `fill`: [`full_blend_is_fill`] of `out` (the caller may have it at hand).
-    pub fn new(cx: f32, r: f32, hw5: f32, out: [f32; 3], rim: [f32; 3], fill: bool, luts: &Luts) -> RimShade {
+    /// `fill`: [`full_blend_is_fill`] of `out` (the caller may have it at
+    /// hand); `bg`: the frame's background, whose pixels are shaded from a
+    /// table (made once for these colours and width, then kept).
+    #[allow(clippy::too_many_arguments)]
+    pub fn new(cx: f32, r: f32, hw5: f32, out: [f32; 3], rim: [f32; 3], fill: bool, bg: [u8; 4], luts: &Luts) -> RimShade {
         let out_lin = [0, 1, 2].map(|k| luts.s2l[super::raster::enc(&luts.l2s, out[k]) as usize]);
-        RimShade { cx, r, hw5, out, rim, out_lin, fill }
+        let plain = RimPlain::for_colours(bg, hw5, out, rim, luts);
+        RimShade { cx, r, hw5, out, rim, out_lin, fill, plain }
     }
+}
+
+/// Steps of [`RimPlain`]'s table: 1/1024 px of distance from the edge. The
+/// coverages are linear in the distance, so rounding moves each by at most
+/// 1/2048: within one display level even where the rim fades into the dark,
+/// where sRGB is steepest (tested; 1/256 px gave up to 3 levels there).
+pub(crate) const RIM_STEPS: f32 = 1024.0;
+
+/// The field edge's shading of a pixel holding the frame's background, by
+/// its signed distance d from the edge (out positive): the bytes of the
+/// exact blends ([`rim_at`]) at d rounded to 1/[`RIM_STEPS`] px, over
+/// d in [−reach, reach]; beyond that the shading no longer changes (both
+/// coverages 0 inside, the dark's 1 and the rim's 0 outside), so the ends
+/// serve. Alpha is the background's.
+#[derive(Clone, Debug)]
+pub(crate) struct RimPlain {
+    /// The background pixel, and four of it.
+    pub bg: [u8; 4],
+    pub bg4: u128,
+    pub reach: f32,
+    /// The last index, as a float (for clamping).
+    pub last: f32,
+    pub px: std::rc::Rc<[u32]>,
+}
+
+/// Tables of [`RimPlain`] by (background, rim half-width, colours): a few
+/// at most (day and night, a pixel ratio or two).
+type RimKey = [u32; 8];
+thread_local! {
+    static RIM_PLAIN: std::cell::RefCell<Vec<(RimKey, std::rc::Rc<[u32]>)>> = const { std::cell::RefCell::new(Vec::new()) };
+}
+
+impl RimPlain {
+    /// The table for this background, rim and colours (from the cache when made before).
+    pub fn for_colours(bg: [u8; 4], hw5: f32, out: [f32; 3], rim: [f32; 3], luts: &Luts) -> RimPlain {
+        let reach = (if hw5 > 0.5 { hw5 } else { 0.5 }) + 1.0 / RIM_STEPS;
+        let n = (2.0 * reach * RIM_STEPS) as usize + 2;
+        let key: RimKey = [u32::from_ne_bytes(bg), hw5.to_bits(), out[0].to_bits(), out[1].to_bits(), out[2].to_bits(), rim[0].to_bits(), rim[1].to_bits(), rim[2].to_bits()];
+        let build = || -> std::rc::Rc<[u32]> {
+            (0..n)
+                .map(|i| {
+                    let d = i as f32 / RIM_STEPS - reach;
+                    let mut p = bg;
+                    rim_at(&mut p, d, hw5, out, rim, luts);
+                    u32::from_ne_bytes(p)
+                })
+                .collect()
+        };
+        let px = RIM_PLAIN.with(|c| match c.try_borrow_mut() {
+            Ok(mut list) => {
+                if let Some((_, t)) = list.iter().find(|(k, _)| *k == key) {
+                    return t.clone();
+                }
+                let t = build();
+                if list.len() >= 4 {
+                    list.remove(0);
+                }
+                list.push((key, t.clone()));
+                t
+            }
+            Err(_) => build(),
+        });
+        let w = u32::from_ne_bytes(bg) as u128;
+        RimPlain { bg, bg4: w | w << 32 | w << 64 | w << 96, reach, last: (px.len().max(1) - 1) as f32, px }
+    }
+
+    /// The table index for distance `d` (the lanes of [`rim4!`] compute the same).
+    #[inline(always)]
+    pub fn index(&self, d: f32) -> usize {
+        let t = (d + self.reach) * RIM_STEPS + 0.5;
+        let t = if t > 0.0 { t } else { 0.0 };
+        let t = if t < self.last { t } else { self.last };
+        t as i32 as usize
+    }
+}
+
+/// The dark outside the edge, then the rim, blended onto one pixel at
+/// signed distance `d` from the edge (each in linear light with its
+/// coverage, quantised to bytes in between).
+#[inline(always)]
+pub(crate) fn rim_at(p: &mut [u8], d: f32, hw5: f32, out: [f32; 3], rim: [f32; 3], luts: &Luts) {
+    super::raster::blend_px(p, &luts.s2l, &luts.l2s, out, (d + 0.5).clamp(0.0, 1.0));
+    super::raster::blend_px(p, &luts.s2l, &luts.l2s, rim, (hw5 - d.abs()).clamp(0.0, 1.0));
 }
 
 /// Whether blending any pixel fully (coverage 1) to the linear colour `c`
@@ -232,6 +324,29 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
         let dx = _mm_sub_ps(_mm_add_ps(xf, _mm_set1_ps(0.5)), _mm_set1_ps(g.cx));
         let d = _mm_sub_ps(_mm_sqrt_ps(_mm_add_ps(_mm_mul_ps(dx, dx), _mm_set1_ps(dy * dy))), _mm_set1_ps(g.r));
         let (zero, one) = (_mm_setzero_ps(), _mm_set1_ps(1.0));
+        // Four background pixels: each from the table (as `rim1` does one).
+        let word = u128::from_ne_bytes(*p);
+        if word == g.plain.bg4 {
+            let t = _mm_add_ps(_mm_mul_ps(_mm_add_ps(d, _mm_set1_ps(g.plain.reach)), _mm_set1_ps(RIM_STEPS)), _mm_set1_ps(0.5));
+            let t = _mm_min_ps(_mm_max_ps(t, zero), _mm_set1_ps(g.plain.last));
+            let mut idx = [0u32; 4];
+            _mm_storeu_si128(idx.as_mut_ptr() as *mut __m128i, _mm_cvttps_epi32(t));
+            let tab: &[u32] = &g.plain.px;
+            if let Some(top) = tab.len().checked_sub(1) {
+                // Indices are clamped to the table already; `min` only spares the checks.
+                let at = |k: u32| tab[(k as usize).min(top)] as i32;
+                let v = _mm_setr_epi32(at(idx[0]), at(idx[1]), at(idx[2]), at(idx[3]));
+                _mm_storeu_si128(p.as_mut_ptr() as *mut __m128i, v);
+            }
+            return;
+        }
+        // Some pixels the background, some not: one by one.
+        if (0..4).any(|j| (word >> (32 * j)) as u32 == u32::from_ne_bytes(g.plain.bg)) {
+            for (j, q) in p.chunks_exact_mut(4).enumerate() {
+                rim1(q, x + j, dy, g, luts);
+            }
+            return;
+        }
         let a1 = _mm_min_ps(_mm_max_ps(_mm_add_ps(d, _mm_set1_ps(0.5)), zero), one);
         let ad = _mm_andnot_ps(_mm_set1_ps(-0.0), d);
         let a2 = _mm_min_ps(_mm_max_ps(_mm_sub_ps(_mm_set1_ps(g.hw5), ad), zero), one);
@@ -299,6 +414,27 @@ macro_rules! rim4 {
             let dx = f32x4_sub(f32x4_add(xf, f32x4_splat(0.5)), f32x4_splat(g.cx));
             let d = f32x4_sub(f32x4_sqrt(f32x4_add(f32x4_mul(dx, dx), f32x4_splat(dy * dy))), f32x4_splat(g.r));
             let (zero, one) = (f32x4_splat(0.0), f32x4_splat(1.0));
+            let word = u128::from_ne_bytes(*p);
+            let bgw = u32::from_ne_bytes(g.plain.bg);
+            if word == g.plain.bg4 {
+                // Four background pixels: each from the table (as `rim1` does one).
+                let t = f32x4_add(f32x4_mul(f32x4_add(d, f32x4_splat(g.plain.reach)), f32x4_splat($crate::render::lanes::RIM_STEPS)), f32x4_splat(0.5));
+                let t = f32x4_pmin(f32x4_splat(g.plain.last), f32x4_pmax(zero, t));
+                let i = i32x4_trunc_sat_f32x4(t);
+                let tab: &[u32] = &g.plain.px;
+                if let Some(top) = tab.len().checked_sub(1) {
+                    // Indices are clamped to the table already; `min` only spares the checks.
+                    let at = |k: u32| tab[(k as usize).min(top)];
+                    let v = u32x4(at(u32x4_extract_lane::<0>(i)), at(u32x4_extract_lane::<1>(i)), at(u32x4_extract_lane::<2>(i)), at(u32x4_extract_lane::<3>(i)));
+                    // SAFETY: `p` is 16 writable bytes; v128 stores need no alignment.
+                    unsafe { v128_store(p.as_mut_ptr() as *mut v128, v) };
+                }
+            } else if (word as u32) == bgw || ((word >> 32) as u32) == bgw || ((word >> 64) as u32) == bgw || ((word >> 96) as u32) == bgw {
+                // Some pixels the background, some not: one by one.
+                for (j, q) in p.chunks_exact_mut(4).enumerate() {
+                    $crate::render::lanes::rim1(q, x + j, dy, g, luts);
+                }
+            } else {
             let a1 = f32x4_pmin(f32x4_pmax(f32x4_add(d, f32x4_splat(0.5)), zero), one);
             let a2 = f32x4_pmin(f32x4_pmax(f32x4_sub(f32x4_splat(g.hw5), f32x4_abs(d)), zero), one);
             let no_dark = i32x4_all_true(f32x4_eq(a1, zero));
@@ -342,6 +478,7 @@ macro_rules! rim4 {
                     p[12 + ch] = l2s[u32x4_extract_lane::<3>(i) as usize & 4095];
                 }
             }
+            }
         }
     }};
 }
@@ -369,8 +506,13 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
 pub(crate) fn rim1(p: &mut [u8], x: usize, dy: f32, g: &RimShade, luts: &Luts) {
     let dx = x as f32 + 0.5 - g.cx;
     let d = super::raster::sqrt(dx * dx + dy * dy) - g.r;
-    super::raster::blend_px(p, &luts.s2l, &luts.l2s, g.out, (d + 0.5).clamp(0.0, 1.0));
-    super::raster::blend_px(p, &luts.s2l, &luts.l2s, g.rim, (g.hw5 - d.abs()).clamp(0.0, 1.0));
+    if p.len() == 4 && p[..4] == g.plain.bg {
+        if let Some(v) = g.plain.px.get(g.plain.index(d)) {
+            p.copy_from_slice(&v.to_ne_bytes());
+            return;
+        }
+    }
+    rim_at(p, d, g.hw5, g.out, g.rim, luts);
 }
 
 #[cfg(test)]
@@ -421,6 +563,34 @@ mod tests {
         assert!(n > 1000);
     }
 
+    /// A background pixel's shading from the table is the exact blends'
+    /// within one display level, from well inside the edge to well outside,
+    /// for day and night colours and rim widths at pixel ratios 1 to 3; and
+    /// the table is made once and found again.
+    #[test]
+    fn rim_table_matches_the_exact_shading() {
+        let luts = super::super::raster::luts();
+        let mut worst = 0u8;
+        let mut n = 0;
+        for (out, rim, sky) in [([0.0f32, 0.0, 0.0], [0.30f32, 0.33, 0.40], [9u8, 10, 14, 255]), ([0.0, 0.0, 0.0], [0.31, 0.0, 0.0], [7, 0, 0, 255]), ([0.02, 0.01, 0.0], [0.9, 0.6, 0.3], [40, 45, 60, 255])] {
+            for hw5 in [1.25f32, 2.0, 2.75] {
+                let t = RimPlain::for_colours(sky, hw5, out, rim, luts);
+                let again = RimPlain::for_colours(sky, hw5, out, rim, luts);
+                assert!(std::rc::Rc::ptr_eq(&t.px, &again.px));
+                for k in -4000..4000 {
+                    let d = k as f32 / 997.0;
+                    let mut exact = sky;
+                    rim_at(&mut exact, d, hw5, out, rim, luts);
+                    let got = t.px[t.index(d)].to_ne_bytes();
+                    worst = worst.max((0..4).map(|c| exact[c].abs_diff(got[c])).max().unwrap_or(0));
+                    n += 1;
+                }
+            }
+        }
+        assert!(n > 50_000);
+        assert!(worst <= 1, "table differs from the exact shading by {worst} levels");
+    }
+
     /// The four-lane field edge writes the bytes of the one-pixel path over
     /// distances from well inside to well outside the edge, several rim
     /// widths, outside colours for which a full blend is a fill and one for
@@ -455,9 +625,9 @@ mod tests {
             if can_fill { fills += 1 } else { not_fills += 1 }
             for fill in [can_fill, false] {
                 for (cx, r, hw5) in [(37.3f32, 20.0f32, 1.25f32), (40.0, 33.77, 2.0), (36.6, 5.1, 0.875), (38.1, 0.4, 1.25)] {
-                    let g = RimShade::new(cx, r, hw5, out, rim, fill, luts);
                     let sky = [byte() % 40, byte() % 40, byte() % 60, 255];
                     let bg = Background::new(sky, luts);
+                    let g = RimShade::new(cx, r, hw5, out, rim, fill, sky, luts);
                     let mut dy = -(r + 3.0) + 0.173;
                     while dy < r + 3.0 {
                         for x in 0..80 {

@@ -33,7 +33,8 @@ pub(crate) struct CircleEdge {
 const EDGE_MARGIN_PX: f32 = 1.0 / 16.0;
 
 impl CircleEdge {
-    pub fn new(radius_rad: f64, t: &ViewTransform, dpr: f32, pal: &Palette) -> CircleEdge {
+    /// `bg`: the frame's background (see [`RimShade`]).
+    pub fn new(radius_rad: f64, t: &ViewTransform, dpr: f32, pal: &Palette, bg: [u8; 4]) -> CircleEdge {
         let half_w = rim_half_width(dpr);
         let r = (radius_rad * t.px_per_rad) as f32;
         // Both coverages vanish for d ≤ −(half_w + 0.5); beyond d ≥ half_w + 0.5
@@ -43,7 +44,7 @@ impl CircleEdge {
         let fill = full_dark_is_fill(pal);
         let ro = if fill { r + reach } else { r + half_w + 1.5 };
         let (cx, cy) = (t.cx as f32, t.cy as f32);
-        let shade = RimShade::new(cx, r, half_w + 0.5, pal.map(background::OUTSIDE), pal.map(RIM), fill, super::raster::luts());
+        let shade = RimShade::new(cx, r, half_w + 0.5, pal.map(background::OUTSIDE), pal.map(RIM), fill, bg, super::raster::luts());
         CircleEdge { cx, cy, ro, ri: (r - reach).max(0.0), shade }
     }
 
@@ -89,12 +90,12 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
             let e = match edge {
                 Some(e) => e,
                 None => {
-                    own = CircleEdge::new(*radius_rad, t, dpr, pal);
+                    own = CircleEdge::new(*radius_rad, t, dpr, pal, cv.bg.rgba);
                     &own
                 }
             };
             let (cx, cy, ri) = (e.cx, e.cy, e.ri);
-            let (g, luts, bg) = (e.shade, cv.luts, cv.bg);
+            let (g, luts, bg) = (&e.shade, cv.luts, cv.bg);
             // The outside runs from the end of one row's span to the start of
             // the next row's: filled as one run (fewer, longer fills).
             let w = cv.w;
@@ -123,11 +124,11 @@ pub(crate) fn field_mask(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr:
                     while x < b {
                         if x + 4 <= limit {
                             if let Ok(p) = <&mut [u8; 16]>::try_from(&mut cv.px[row + x * 4..row + x * 4 + 16]) {
-                                rim4!(p, x, dy, &g, luts, &bg);
+                                rim4!(p, x, dy, g, luts, &bg);
                             }
                             x += 4;
                         } else {
-                            rim1(&mut cv.px[row + x * 4..row + x * 4 + 4], x, dy, &g, luts);
+                            rim1(&mut cv.px[row + x * 4..row + x * 4 + 4], x, dy, g, luts);
                             x += 1;
                         }
                     }

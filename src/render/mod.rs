@@ -290,7 +290,7 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
     prepare_stars(scene, &t, view.dpr, &pal, (cv.w, cv.h), sc);
     let Scratch { stars, wx, psf, .. } = sc;
     let edge = match &scene.field {
-        FieldEdge::Circle { radius_rad } => Some(markers::CircleEdge::new(*radius_rad, &t, view.dpr, &pal)),
+        FieldEdge::Circle { radius_rad } => Some(markers::CircleEdge::new(*radius_rad, &t, view.dpr, &pal, sky8)),
         FieldEdge::Polygon { .. } => None,
     };
     // Bands of rows, each finished while it sits in cache. Per pixel the
@@ -308,10 +308,14 @@ fn draw_with(scene: &Scene, view: &ViewParams, frame: &mut Frame, sc: &mut Scrat
                 // fills everything outside each row's span with the outside
                 // colour, whatever the pixel held (stars and glows drawn there
                 // first are covered).
+                // Three pixels past the span's end too: the edge's last group
+                // of four may run past it (the outside fill covers them
+                // after), and groups still holding the sky are shaded from a
+                // table (`lanes::RimPlain`) rather than pixel by pixel.
                 Some(e) => {
                     for y in rows.0..rows.1 {
                         if let Some((xl, xr)) = e.span(y, cv.w) {
-                            cv.fill_span(y, xl, xr, sky8);
+                            cv.fill_span(y, xl, xr + 3, sky8);
                         }
                     }
                 }
