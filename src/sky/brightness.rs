@@ -63,7 +63,7 @@ pub fn moon_vmag(phase_angle_rad: f64) -> f64 {
 /// held in [10°, 180°] (see [`MIN_SCATTERING_ANGLE_RAD`]).
 pub fn scattering(separation_rad: f64) -> f64 {
     let r = separation_rad.abs();
-    let r = if r < MIN_SCATTERING_ANGLE_RAD { MIN_SCATTERING_ANGLE_RAD } else if r > core::f64::consts::PI { core::f64::consts::PI } else { r };
+    let r = r.clamp(MIN_SCATTERING_ANGLE_RAD, core::f64::consts::PI);
     let c = libm::cos(r);
     exp10(5.36) * (1.06 + c * c) + exp10(6.15 - r.to_degrees() / 40.0)
 }
