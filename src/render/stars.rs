@@ -228,12 +228,14 @@ impl PsfTables {
 /// Sub-pixel phases of the precomputed small-star weights: positions are kept
 /// to 1/128 px for stars drawn at the base width.
 const PHASES: usize = 64;
-const SMALL_N: usize = 6;
+/// Pixels a table row may hold: enough for the base width up to a pixel
+/// ratio of 3 (σ = 1.65 px: 8 or 9 pixels).
+const SMALL_N: usize = 10;
 /// Row length of the weight table: SMALL_N rounded up to whole groups of four.
-const SMALL_W: usize = 8;
+const SMALL_W: usize = 12;
 
-/// Pixel weights of the base-width PSF for each sub-pixel phase (one axis):
-/// the first pixel's offset from floor(x) and up to 6 weights.
+/// Pixel weights of one stamp width for each sub-pixel phase (one axis):
+/// the first pixel's offset from floor(x) and up to `SMALL_N` weights.
 pub(crate) struct SmallPsf {
     pub sigma: f32,
     ok: bool,
@@ -308,18 +310,18 @@ impl SmallPsf {
     /// For a base-width star centred at (x, y) (within the field's reach of
     /// the frame) in a frame `w` pixels wide: the rows [a, b) its stamp
     /// draws (its phase, not y itself, decides them), and its table
-    /// placement when its rows run four pixels wide inside the frame (the
+    /// placement when its rows run whole (`nw` pixels) inside the frame (the
     /// same floors and phases [`stamp_small`] takes), else `None`.
     #[inline(always)]
     pub fn place(&self, x: f32, y: f32, w: usize, k: u8) -> (i32, i32, Option<TablePlace>) {
         let (ix, iy, phx, phy) = cell_and_phases(x, y);
         let a = iy.saturating_add(self.off[phy]);
         let b = a.saturating_add(self.n[phy] as i32);
-        if !(self.ok && self.nw == 4 && x > -8.0 && y > -8.0 && x < w as f32 + 8.0 && y < 30_000.0 && w <= u16::MAX as usize) {
+        if !(self.ok && x > -16.0 && y > -16.0 && x < w as f32 + 16.0 && y < 30_000.0 && w <= u16::MAX as usize) {
             return (a, b, None);
         }
         let x0 = ix + self.off[phx];
-        if x0 < 0 || x0 as usize + 4 > w {
+        if x0 < 0 || x0 as usize + self.nw > w {
             return (a, b, None);
         }
         (a, b, Some(TablePlace { x0: x0 as u16, y_first: a as i16, phx: phx as u8, phy: phy as u8, k }))
@@ -347,6 +349,22 @@ pub(crate) fn stamp_table(cv: &mut Canvas, at: TablePlace, flux: f32, colour: [f
     };
     let wy = &p.w[phy];
     let mut at_px = (at.y_first as i64 + j0 as i64) as usize * w4 + at.x0 as usize * 4;
+    if p.nw != 4 {
+        // Wider rows (pixel ratios of 2 and 3): whole groups of four.
+        let wrow = &p.w[phx][..p.nw.min(SMALL_W)];
+        for &wyj in &wy[j0..j1] {
+            let ky = wyj * flux;
+            if let Some(seg) = cv.px.get_mut(at_px..at_px + 4 * wrow.len()) {
+                for (g, wg) in seg.chunks_exact_mut(16).zip(wrow.chunks_exact(4)) {
+                    if let (Ok(g), Ok(wg)) = (<&mut [u8; 16]>::try_from(g), <&[f32; 4]>::try_from(wg)) {
+                        add4!(g, wg, ky, colour, luts, &cv.bg);
+                    }
+                }
+            }
+            at_px += w4;
+        }
+        return;
+    }
     // Most phases light three columns: the fourth pixel, whose weight is
     // zero, is then left alone rather than written back unchanged.
     if p.n[phx] <= 3 {
@@ -617,10 +635,44 @@ mod tests {
         assert_eq!(before, psf.get(k).map(|t| t as *const SmallPsf));
     }
 
+    /// At pixel ratios 1 to 3, a base-width star drawn from its table where
+    /// it was placed writes the bytes `stamp_small` writes (rows of one to
+    /// three groups of four), band by band too.
+    #[test]
+    fn table_stamps_match_the_small_stamp() {
+        let (w, h) = (40usize, 40usize);
+        let bg = [9u8, 10, 14, 255];
+        let mut n = 0;
+        for dpr in [1.0f32, 1.5, 2.0, 3.0] {
+            let p = SmallPsf::with_sigma(SIGMA0_PX * dpr);
+            let look = star_look(12.0, 13.5, dpr);
+            assert!(p.fits(look), "dpr {dpr}");
+            for j in 0..40 {
+                let (x, y) = (17.0 + j as f32 * 0.173, 19.4 - j as f32 * 0.091);
+                let (_, _, Some(at)) = p.place(x, y, w, 0) else {
+                    panic!("dpr {dpr}: ({x}, {y}) not placed");
+                };
+                for rows in [(0, h), (16, 32), (0, 20)] {
+                    let mut p1 = [bg; 40 * 40].concat();
+                    let mut p2 = p1.clone();
+                    let mut c1 = Canvas::new(w, h, &mut p1);
+                    c1.bg = super::super::lanes::Background::new(bg, c1.luts);
+                    stamp_table(&mut c1, at, look.flux, [0.9, 0.8, 1.0], rows, &p);
+                    let mut c2 = Canvas::new(w, h, &mut p2);
+                    c2.bg = super::super::lanes::Background::new(bg, c2.luts);
+                    stamp_small(&mut c2, x, y, look.flux, [0.9, 0.8, 1.0], rows, &p);
+                    assert!(p1 == p2, "dpr {dpr} at ({x}, {y}) rows {rows:?}");
+                    n += 1;
+                }
+            }
+        }
+        assert_eq!(n, 480);
+    }
+
     /// The base-width tables are the same cut and scaling, at each phase's centre.
     #[test]
     fn small_tables_match_the_stamp_axis() {
-        for dpr in [0.5f32, 1.0, 1.5] {
+        for dpr in [0.5f32, 1.0, 1.5, 2.0, 2.5, 3.0] {
             let p = SmallPsf::with_sigma(SIGMA0_PX * dpr);
             assert!(p.ok, "dpr {dpr}");
             for ph in 0..PHASES {
