@@ -162,9 +162,9 @@ fn sigma_step_width(s0: f32, k: i32) -> f32 {
 }
 
 /// Weight tables for the base width and each width step above it whose
-/// stamp still runs four pixels wide (at a pixel ratio of 1, widths up to
-/// 0.73 px: four stars in five of a rich field, after the base width's),
-/// built when first needed and kept while the pixel ratio stays.
+/// stamp a table row holds (at most `SMALL_N` pixels: widths up to 1.67 px;
+/// in the rich bench field all but about 30 of 6,000 stars), built when
+/// first needed (about 3.6 KB each) and kept while the pixel ratio stays.
 #[derive(Default)]
 pub(crate) struct PsfTables {
     dpr_bits: u32,
@@ -172,8 +172,9 @@ pub(crate) struct PsfTables {
     list: Vec<Option<Box<SmallPsf>>>,
 }
 
-/// Width steps above the base that may get tables.
-const MAX_TABLE_STEPS: usize = 32;
+/// Width steps above the base that may get tables: at a pixel ratio of 1,
+/// up to 1.67 px, the widest a table row holds (`SMALL_N`).
+const MAX_TABLE_STEPS: usize = 72;
 
 impl PsfTables {
     /// Readies the tables for pixel ratio `dpr` (keeps them if it is the same).
