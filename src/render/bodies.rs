@@ -98,7 +98,7 @@ pub(crate) fn draw_bodies(cv: &mut Canvas, scene: &Scene, t: &ViewTransform, dpr
                 // keep it near the base star width (bright, not bloated).
                 let s = look.sigma_px.min(stars::SIGMA0_PX * dpr * 1.4);
                 let peak = (look.flux / (core::f32::consts::TAU * look.sigma_px * look.sigma_px)).min(stars::PEAK_MAX);
-                look = stars::StarLook { flux: peak * core::f32::consts::TAU * s * s, sigma_px: s };
+                look = stars::StarLook { flux: peak * core::f32::consts::TAU * s * s, sigma_px: s, reach_px: stars::stamp_reach(s, dpr) };
             }
             stars::stamp(cv, x, y, look, pal.map(lit_colour(b.look)), rows, &mut wx);
             continue;

@@ -446,7 +446,7 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
     if sc.memo_key != key || sc.memo.len() != scene.stars.len() {
         sc.memo_key = key;
         sc.memo.clear();
-        let stale = StarMemo { known: false, vmag_bits: 0, bv_bits: 0, look: stars::StarLook { flux: 0.0, sigma_px: 0.0 }, colour: [0.0; 3] };
+        let stale = StarMemo { known: false, vmag_bits: 0, bv_bits: 0, look: stars::StarLook { flux: 0.0, sigma_px: 0.0, reach_px: 0.0 }, colour: [0.0; 3] };
         sc.memo.resize(scene.stars.len(), stale);
     }
     let memo = &mut sc.memo;

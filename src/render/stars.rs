@@ -25,8 +25,20 @@ const CDF_N: usize = 2048;
 // `cdf` masks its index with CDF_N − 1.
 const _: () = assert!(CDF_N.is_power_of_two());
 const CDF_SPAN: f32 = 4.0; // table covers t in [−4, 4] σ
-// Pixels whose centres lie within ±2.7 σ (and at least ±1 px) of the star's centre.
+// Pixels whose centres lie within ±2.7 σ (and at least ±1 px) of the star's centre,
+// for stars up to σ = 1 CSS px; see [`stamp_reach`] for wider ones.
 const STAMP_SIGMAS: f32 = 2.7;
+
+/// A stamp's reach (px) for width `sigma` at pixel ratio `dpr`: 2.7 σ up to
+/// σ = 1 CSS px, growing to 3.5 σ at 2 CSS px and beyond; at least 1 px. A
+/// wide star is bright (its peak held at [`PEAK_MAX`]), and at 2.7 σ its
+/// light is still 1.5·e^(−3.6) ≈ 0.04: a big stamp showed as a grey square
+/// around the star. At 3.5 σ it is 0.003, below what shows on the sky.
+pub fn stamp_reach(sigma: f32, dpr: f32) -> f32 {
+    let over = sigma / dpr - 1.0;
+    let t = if over > 1.0 { 1.0 } else if over > 0.0 { over } else { 0.0 };
+    max_f((STAMP_SIGMAS + 0.8 * t) * sigma, 1.0)
+}
 
 /// The pixels [a, b) of one axis a stamp of reach `r` centred at `c` covers:
 /// those whose centres lie within `r` of `c` (a pixel i spans [i, i+1)).
@@ -121,6 +133,8 @@ fn cdf(tab: &[f32; CDF_N + 1], t: f32) -> f32 {
 pub struct StarLook {
     pub flux: f32,
     pub sigma_px: f32,
+    /// The stamp's reach, px ([`stamp_reach`]).
+    pub reach_px: f32,
 }
 
 pub const PEAK_AT_LIMIT: f32 = 0.16;
@@ -145,7 +159,7 @@ pub fn star_look(vmag: f32, mag_limit: f32, dpr: f32) -> StarLook {
         let s = (s0 * libm::expf(0.3 * libm::logf(peak / PEAK_MAX))).min((7.0 * dpr).min(36.0));
         (PEAK_MAX, sigma_step_width(s0, sigma_step(s0, s)))
     };
-    StarLook { flux: peak * core::f32::consts::TAU * sigma * sigma, sigma_px: sigma }
+    StarLook { flux: peak * core::f32::consts::TAU * sigma * sigma, sigma_px: sigma, reach_px: stamp_reach(sigma, dpr) }
 }
 
 /// The step (of 1/64 px) nearest to width `s` above the base width `s0`
@@ -183,7 +197,7 @@ impl PsfTables {
             self.dpr_bits = dpr.to_bits();
             self.base_sigma = SIGMA0_PX * dpr;
             self.list.clear();
-            self.list.push(Some(Box::new(SmallPsf::with_sigma(self.base_sigma))));
+            self.list.push(Some(Box::new(SmallPsf::with_sigma(self.base_sigma, stamp_reach(self.base_sigma, dpr)))));
         }
     }
 
@@ -202,21 +216,21 @@ impl PsfTables {
         }
         let t = match self.list.get(k as usize) {
             Some(Some(t)) => t,
-            _ => self.build(k as usize, look.sigma_px)?,
+            _ => self.build(k as usize, look)?,
         };
         // [`SmallPsf::place`] tells which stars the table draws (rows four
         // pixels wide inside the frame).
-        (t.ok && t.sigma == look.sigma_px).then_some(k as u8)
+        (t.ok && t.sigma == look.sigma_px && t.reach == look.reach_px).then_some(k as u8)
     }
 
     /// Builds table `k` (out of line: once a width and pixel ratio).
     #[cold]
     #[inline(never)]
-    fn build(&mut self, k: usize, sigma: f32) -> Option<&SmallPsf> {
+    fn build(&mut self, k: usize, look: StarLook) -> Option<&SmallPsf> {
         if self.list.len() <= k {
             self.list.resize_with(k + 1, || None);
         }
-        Some(self.list.get_mut(k)?.get_or_insert_with(|| Box::new(SmallPsf::with_sigma(sigma))))
+        Some(self.list.get_mut(k)?.get_or_insert_with(|| Box::new(SmallPsf::with_sigma(look.sigma_px, look.reach_px))))
     }
 
     /// Table `k` (from [`PsfTables::index_for`]).
@@ -239,6 +253,8 @@ const SMALL_W: usize = 12;
 /// the first pixel's offset from floor(x) and up to `SMALL_N` weights.
 pub(crate) struct SmallPsf {
     pub sigma: f32,
+    /// The stamp's reach, px.
+    pub reach: f32,
     ok: bool,
     off: [i32; PHASES],
     n: [usize; PHASES],
@@ -253,10 +269,9 @@ pub(crate) struct SmallPsf {
 
 impl SmallPsf {
     /// The tables of width `sigma` (px).
-    pub fn with_sigma(sigma: f32) -> SmallPsf {
+    pub fn with_sigma(sigma: f32, r: f32) -> SmallPsf {
         let tab = cdf_table();
-        let r = max_f(STAMP_SIGMAS * sigma, 1.0);
-        let mut p = SmallPsf { sigma, ok: false, off: [0; PHASES], n: [0; PHASES], w: [[0.0; SMALL_W]; PHASES], wmax: [0.0; PHASES], nw: 0 };
+        let mut p = SmallPsf { sigma, reach: r, ok: false, off: [0; PHASES], n: [0; PHASES], w: [[0.0; SMALL_W]; PHASES], wmax: [0.0; PHASES], nw: 0 };
         for ph in 0..PHASES {
             let fx = (ph as f32 + 0.5) / PHASES as f32;
             let ax = Axis::new(tab, fx, sigma, r);
@@ -276,7 +291,7 @@ impl SmallPsf {
     /// Whether a star of this look can use the table.
     #[inline]
     pub fn fits(&self, look: StarLook) -> bool {
-        self.ok && look.sigma_px == self.sigma
+        self.ok && look.sigma_px == self.sigma && look.reach_px == self.reach
     }
 }
 
@@ -450,7 +465,7 @@ fn pixel_weights(tab: &[f32; CDF_N + 1], c: f32, inv: f32, a: i32, b: i32) -> im
 
 /// Stamp reach in pixels from the centre.
 pub fn stamp_radius_px(look: StarLook) -> f32 {
-    max_f(STAMP_SIGMAS * look.sigma_px, 1.0)
+    max_f(look.reach_px, 1.0)
 }
 
 /// Stamps a star centred at (x, y) (pixel units, pixel i spans [i, i+1)).
@@ -459,7 +474,7 @@ pub fn stamp_radius_px(look: StarLook) -> f32 {
 #[cfg_attr(target_arch = "wasm32", target_feature(enable = "simd128"))]
 pub(crate) fn stamp(cv: &mut Canvas, x: f32, y: f32, look: StarLook, colour: [f32; 3], rows: (usize, usize), wx: &mut Vec<f32>) {
     let tab = cdf_table();
-    let r = max_f(STAMP_SIGMAS * look.sigma_px, 1.0);
+    let r = stamp_radius_px(look);
     if !(x + r >= 0.0 && y + r >= 0.0 && x - r < cv.w as f32 && y - r < cv.h as f32) {
         return;
     }
@@ -645,7 +660,7 @@ mod tests {
         let bg = [9u8, 10, 14, 255];
         let mut n = 0;
         for dpr in [1.0f32, 1.5, 2.0, 3.0] {
-            let p = SmallPsf::with_sigma(SIGMA0_PX * dpr);
+            let p = SmallPsf::with_sigma(SIGMA0_PX * dpr, stamp_reach(SIGMA0_PX * dpr, dpr));
             let look = star_look(12.0, 13.5, dpr);
             assert!(p.fits(look), "dpr {dpr}");
             for j in 0..40 {
@@ -674,7 +689,7 @@ mod tests {
     #[test]
     fn small_tables_match_the_stamp_axis() {
         for dpr in [0.5f32, 1.0, 1.5, 2.0, 2.5, 3.0] {
-            let p = SmallPsf::with_sigma(SIGMA0_PX * dpr);
+            let p = SmallPsf::with_sigma(SIGMA0_PX * dpr, stamp_reach(SIGMA0_PX * dpr, dpr));
             assert!(p.ok, "dpr {dpr}");
             for ph in 0..PHASES {
                 let fx = (ph as f32 + 0.5) / PHASES as f32;

@@ -59,10 +59,17 @@ test('brightest star of the field lands on the expected pixel (within 2 px)', as
   const got = await page.evaluate(() => {
     const c = document.getElementById('view');
     const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+    // The brightest star is the most light in a 9×9 box, not the brightest pixel: every
+    // star bright enough to saturate its core has pixels at full white.
+    const W = c.width, H = c.height, sat = new Float64Array((W + 1) * (H + 1));
+    for (let y = 0; y < H; y++) for (let x = 0; x < W; x++) {
+      const i = (y * W + x) * 4;
+      sat[(y + 1) * (W + 1) + x + 1] = d[i] + d[i + 1] + d[i + 2] + sat[y * (W + 1) + x + 1] + sat[(y + 1) * (W + 1) + x] - sat[y * (W + 1) + x];
+    }
     let best = -1, bx = 0, by = 0;
-    for (let y = 0; y < c.height; y++) for (let x = 0; x < c.width; x++) {
-      const i = (y * c.width + x) * 4, v = d[i] + d[i + 1] + d[i + 2];
-      if (v > best) { best = v; bx = x; by = y; }
+    for (let y = 4; y < H - 4; y++) for (let x = 4; x < W - 4; x++) {
+      const box = sat[(y + 5) * (W + 1) + x + 5] - sat[(y - 4) * (W + 1) + x + 5] - sat[(y + 5) * (W + 1) + x - 4] + sat[(y - 4) * (W + 1) + x - 4];
+      if (box > best) { best = box; bx = x; by = y; }
     }
     // Intensity-weighted centroid (pixel centres at i + 0.5) above the box's faintest level,
     // in a 41 px box re-centred on the centroid a few times: a bright star's core is a
