@@ -2,7 +2,8 @@
 //! pixel (separable: the product of two differences of the normal CDF, from a
 //! precomputed table), so a star at a sub-pixel position keeps its flux and
 //! moves smoothly. Only the pixels whose centres lie within 2.7 σ of the
-//! star's centre (per axis) are touched; an end pixel's weight fades out
+//! star's centre (per axis; 3.5 σ for stars wider than 2 CSS px, see
+//! [`stamp_reach`]) are touched; an end pixel's weight fades out
 //! over the last half pixel before its centre leaves that reach, so pixels
 //! join and leave a moving star's stamp without a jump; and each axis's
 //! weights are scaled to sum to one, so the light the cut leaves out (at
