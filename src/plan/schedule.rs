@@ -289,7 +289,7 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
         let mut frames = Vec::with_capacity(input.stations.len());
         let mut views = Vec::with_capacity(input.stations.len());
         for s in &input.stations {
-            let ext_ref = skyb::extinction_mag(k, alt[ref_i]);
+            let ext_ref = skyb::extinction_at_alt_mag(k, alt[ref_i]);
             let mut margin_of = |ti: usize| {
                 assess_one(c, light.as_ref(), &s.trains[ti], pupil, ext_ref, sky_mu[ref_i]).averted_margin_mag
             };
@@ -300,7 +300,7 @@ pub fn prepare(input: &PlanInput) -> Result<Prepared, PlanError> {
                         if !clear[i] {
                             return StepView { verdict: Verdict::NotVisible, averted_margin_mag: f32::NEG_INFINITY };
                         }
-                        let a = assess_one(c, light.as_ref(), &s.trains[fc.train_index], pupil, skyb::extinction_mag(k, alt[i]), sky_mu[i]);
+                        let a = assess_one(c, light.as_ref(), &s.trains[fc.train_index], pupil, skyb::extinction_at_alt_mag(k, alt[i]), sky_mu[i]);
                         StepView { verdict: a.verdict, averted_margin_mag: a.averted_margin_mag as f32 }
                     })
                     .collect(),

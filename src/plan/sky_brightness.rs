@@ -116,7 +116,8 @@ impl SkyBrightness {
 /// moonless and the light-polluted sky are both reddish, about 1.0).
 pub const SKY_BV: f64 = 1.0;
 
-/// Extinction of the object's light, mag: k·X (Krisciunas & Schaefer 1991 air mass).
-pub fn extinction_mag(k_mag: f64, alt_rad: f64) -> f64 {
+/// Extinction of the object's light, mag: k·X (Krisciunas & Schaefer 1991 air mass),
+/// from the altitude (`sky::darkness::extinction_mag` takes an air mass instead).
+pub fn extinction_at_alt_mag(k_mag: f64, alt_rad: f64) -> f64 {
     k_mag * crate::sky::brightness::ks_airmass(alt_rad)
 }
