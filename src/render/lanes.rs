@@ -223,9 +223,8 @@ pub(crate) const RIM_STEPS: f32 = 1024.0;
 /// serve. Alpha is the background's.
 #[derive(Clone, Debug)]
 pub(crate) struct RimPlain {
-    /// The background pixel, and four of it.
-    pub bg: [u8; 4],
-    pub bg4: u128,
+    /// The background the table was made for.
+    pub bg: Background,
     pub reach: f32,
     /// The last index, as a float (for clamping).
     pub last: f32,
@@ -269,8 +268,7 @@ impl RimPlain {
             }
             Err(_) => build(),
         });
-        let w = u32::from_ne_bytes(bg) as u128;
-        RimPlain { bg, bg4: w | w << 32 | w << 64 | w << 96, reach, last: (px.len().max(1) - 1) as f32, px }
+        RimPlain { bg: Background::new(bg, luts), reach, last: (px.len().max(1) - 1) as f32, px }
     }
 
     /// The table index for distance `d` (the lanes of [`rim4!`] compute the same).
@@ -326,7 +324,7 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
         let (zero, one) = (_mm_setzero_ps(), _mm_set1_ps(1.0));
         // Four background pixels: each from the table (as `rim1` does one).
         let word = u128::from_ne_bytes(*p);
-        if word == g.plain.bg4 {
+        if word == g.plain.bg.word4 {
             let t = _mm_add_ps(_mm_mul_ps(_mm_add_ps(d, _mm_set1_ps(g.plain.reach)), _mm_set1_ps(RIM_STEPS)), _mm_set1_ps(0.5));
             let t = _mm_min_ps(_mm_max_ps(t, zero), _mm_set1_ps(g.plain.last));
             let mut idx = [0u32; 4];
@@ -341,7 +339,7 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
             return;
         }
         // Some pixels the background, some not: one by one.
-        if (0..4).any(|j| (word >> (32 * j)) as u32 == u32::from_ne_bytes(g.plain.bg)) {
+        if (0..4).any(|j| (word >> (32 * j)) as u32 == u32::from_ne_bytes(g.plain.bg.rgba)) {
             for (j, q) in p.chunks_exact_mut(4).enumerate() {
                 rim1(q, x + j, dy, g, luts);
             }
@@ -415,8 +413,8 @@ macro_rules! rim4 {
             let d = f32x4_sub(f32x4_sqrt(f32x4_add(f32x4_mul(dx, dx), f32x4_splat(dy * dy))), f32x4_splat(g.r));
             let (zero, one) = (f32x4_splat(0.0), f32x4_splat(1.0));
             let word = u128::from_ne_bytes(*p);
-            let bgw = u32::from_ne_bytes(g.plain.bg);
-            if word == g.plain.bg4 {
+            let bgw = u32::from_ne_bytes(g.plain.bg.rgba);
+            if word == g.plain.bg.word4 {
                 // Four background pixels: each from the table (as `rim1` does one).
                 let t = f32x4_add(f32x4_mul(f32x4_add(d, f32x4_splat(g.plain.reach)), f32x4_splat($crate::render::lanes::RIM_STEPS)), f32x4_splat(0.5));
                 let t = f32x4_pmin(f32x4_splat(g.plain.last), f32x4_pmax(zero, t));
@@ -506,7 +504,7 @@ pub(crate) fn rim4_fn(p: &mut [u8; 16], x: usize, dy: f32, g: &RimShade, luts: &
 pub(crate) fn rim1(p: &mut [u8], x: usize, dy: f32, g: &RimShade, luts: &Luts) {
     let dx = x as f32 + 0.5 - g.cx;
     let d = super::raster::sqrt(dx * dx + dy * dy) - g.r;
-    if p.len() == 4 && p[..4] == g.plain.bg {
+    if p.len() == 4 && p[..4] == g.plain.bg.rgba {
         if let Some(v) = g.plain.px.get(g.plain.index(d)) {
             p.copy_from_slice(&v.to_ne_bytes());
             return;

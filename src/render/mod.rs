@@ -427,8 +427,8 @@ struct PreparedStar {
     /// Rows the stamp covers: [y0, y1) (frames are at most 8192 rows).
     y0: u16,
     y1: u16,
-    /// Where the base-width weight tables place it, when its rows lie whole
-    /// inside the frame (most stars): drawn by [`stars::stamp_table`].
+    /// Where its width's weight tables place it, when its rows lie whole
+    /// inside the frame (nearly every star): drawn by [`stars::stamp_table`].
     table: Option<stars::TablePlace>,
 }
 
@@ -469,7 +469,7 @@ fn prepare_stars(scene: &Scene, t: &ViewTransform, dpr: f32, pal: &Palette, (w, 
         // The rows the stamp draws: from the weight tables' phase for stars
         // drawn from them (and base-width stars at the frame's sides, which
         // `stamp_small` draws from them), else the stamp's own.
-        let placed = psf.index_for(look).and_then(|k| Some((k, psf.get(k)?.place(x, y, w, k))));
+        let placed = psf.table_for(look).map(|(k, t)| (k, t.place(x, y, w, k)));
         let (a, b, table) = match placed {
             Some((_, (a, b, Some(at)))) => (a, b, Some(at)),
             Some((0, (a, b, None))) => (a, b, None),

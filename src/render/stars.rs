@@ -207,34 +207,36 @@ impl PsfTables {
         self.list.first().and_then(|t| t.as_deref())
     }
 
-    /// The table index for a star of this look, when one fits it (built
-    /// now if it is the first star of its width this pixel ratio).
+    /// The table for a star of this look and its index, when one fits it
+    /// (built now if it is the first star of its width this pixel ratio).
+    /// [`SmallPsf::place`] then tells whether the table draws the star
+    /// (whole rows inside the frame).
     #[inline]
-    pub fn index_for(&mut self, look: StarLook) -> Option<u8> {
+    pub fn table_for(&mut self, look: StarLook) -> Option<(u8, &SmallPsf)> {
         let k = if look.sigma_px == self.base_sigma { 0 } else { sigma_step(self.base_sigma, look.sigma_px) };
         if !(0..=MAX_TABLE_STEPS as i32).contains(&k) {
             return None;
         }
-        let t = match self.list.get(k as usize) {
-            Some(Some(t)) => t,
-            _ => self.build(k as usize, look)?,
-        };
-        // [`SmallPsf::place`] tells which stars the table draws (rows four
-        // pixels wide inside the frame).
-        (t.ok && t.sigma == look.sigma_px && t.reach == look.reach_px).then_some(k as u8)
+        if !matches!(self.list.get(k as usize), Some(Some(_))) {
+            self.build(k as usize, look);
+        }
+        let t = self.list.get(k as usize)?.as_deref()?;
+        t.fits(look).then_some((k as u8, t))
     }
 
     /// Builds table `k` (out of line: once a width and pixel ratio).
     #[cold]
     #[inline(never)]
-    fn build(&mut self, k: usize, look: StarLook) -> Option<&SmallPsf> {
+    fn build(&mut self, k: usize, look: StarLook) {
         if self.list.len() <= k {
             self.list.resize_with(k + 1, || None);
         }
-        Some(self.list.get_mut(k)?.get_or_insert_with(|| Box::new(SmallPsf::with_sigma(look.sigma_px, look.reach_px))))
+        if let Some(slot) = self.list.get_mut(k) {
+            *slot = Some(Box::new(SmallPsf::with_sigma(look.sigma_px, look.reach_px)));
+        }
     }
 
-    /// Table `k` (from [`PsfTables::index_for`]).
+    /// Table `k` (from [`PsfTables::table_for`]).
     #[inline]
     pub fn get(&self, k: u8) -> Option<&SmallPsf> {
         self.list.get(k as usize).and_then(|t| t.as_deref())
@@ -615,7 +617,7 @@ mod tests {
         for m in [10.9f32, 10.7, 10.5, 10.3, 10.1] {
             let look = star_look(m, 13.5, 1.0);
             assert!(look.sigma_px > SIGMA0_PX, "m {m}: {look:?}");
-            let Some(k) = psf.index_for(look) else {
+            let Some((k, _)) = psf.table_for(look) else {
                 continue;
             };
             assert!(k > 0);
@@ -646,9 +648,9 @@ mod tests {
         assert!(steps.len() >= 3 && drawn >= 60, "steps {steps:?} drawn {drawn}");
         // Found again, not rebuilt: the same table object.
         let look = star_look(10.5, 13.5, 1.0);
-        let k = psf.index_for(look).unwrap_or(0);
+        let k = psf.table_for(look).map_or(0, |(k, _)| k);
         let before = psf.get(k).map(|t| t as *const SmallPsf);
-        let _ = psf.index_for(look);
+        let _ = psf.table_for(look);
         assert_eq!(before, psf.get(k).map(|t| t as *const SmallPsf));
     }
 
